@@ -1,0 +1,179 @@
+import { SimpleLinearRegression } from 'ml-regression';
+import { propagate } from '../core/propagate.js';
+import { median, weightedMean } from '../core/stats.js';
+import type { BranchFit, Layer, Segment } from '../core/types.js';
+import type { WarningLog } from '../core/warnings.js';
+
+/**
+ * A segment whose apparent velocity differs from the median of its layer by more than this factor
+ * is reported: dips of 10 to 15 degrees give up- and down-dip apparent velocities within about this
+ * ratio of the true one for usual velocity contrasts (common practice).
+ */
+const CONSISTENCY_RATIO = 1.4;
+
+/** A segment faster than the deepest layer seen near the sources by this factor starts a new layer. */
+const NEW_LAYER_RATIO = 1.25;
+
+/**
+ * Assigns each branch segment to a layer. Branches whose first pick is near their source see the
+ * direct wave, so their segment k is layer k. Branches from sources off the ends start on a deeper
+ * layer: their segments are matched, in order, to the layer whose median slowness they are
+ * closest to (in ratio). Segments far from their layer's median are warned about.
+ *
+ * @param spacing - receiver spacing, in metres, to judge "near the source"
+ * @returns the number of layers
+ */
+export function assignLayers(fits: BranchFit[], spacing: number, warnings: WarningLog): number {
+  const near = (fit: BranchFit) => fit.branch.offsets.find((o) => o > 0)! <= 2.01 * spacing;
+  const reference = fits.filter(near);
+  const base = reference.length > 0 ? reference : fits;
+  let layerCount = Math.max(...base.map((f) => f.segments.length));
+  const layerSlowness: number[] = [];
+  for (let k = 1; k <= layerCount; k++) {
+    layerSlowness[k] = median(base.flatMap((f) => f.segments.filter((s) => s.order === k).map((s) => s.slowness)))!;
+  }
+  for (const fit of fits) {
+    if (base.includes(fit)) continue;
+    const layers = matchInOrder(fit.segments.map((s) => s.slowness), layerSlowness, layerCount);
+    fit.segments.forEach((s, i) => { s.layer = layers[i]; });
+    layerCount = Math.max(layerCount, ...layers);
+  }
+  for (let k = 1; k <= layerCount; k++) {
+    const members = fits.flatMap((f) => f.segments.filter((s) => s.layer === k).map((s) => ({ f, s })));
+    const mid = median(members.map((m) => m.s.slowness));
+    if (mid === undefined) continue;
+    for (const { f, s } of members) {
+      const ratio = s.slowness / mid;
+      if (ratio > CONSISTENCY_RATIO || ratio < 1 / CONSISTENCY_RATIO) {
+        warnings.add('layer-consistency',
+          `${f.branch.sourceId}:${f.branch.side} segment ${s.order} (apparent velocity ${Math.round(s.apparentVelocity)} m/s) is assigned to layer ${k}, whose median apparent velocity is ${Math.round(1 / mid)} m/s; check the picks or fix the branch's segments`,
+          { layer: k });
+      }
+    }
+  }
+  return layerCount;
+}
+
+/**
+ * Matches segment slownesses, in order, to strictly increasing layer numbers so that the sum of
+ * |ln(segment / layer)| is least; a layer below the deepest known one costs ln(NEW_LAYER_RATIO).
+ */
+function matchInOrder(slowness: number[], layerSlowness: number[], layerCount: number): number[] {
+  const layers = layerCount + slowness.length;
+  const cost = (i: number, k: number) => (k <= layerCount
+    ? Math.abs(Math.log(slowness[i] / layerSlowness[k]))
+    // A new layer costs less than the deepest known one only beyond NEW_LAYER_RATIO faster than it.
+    : Math.max(0, 2 * Math.log(NEW_LAYER_RATIO) - Math.log(layerSlowness[layerCount] / slowness[i])) + 10 * (k - layerCount - 1));
+  // best[i][k]: least cost of the first i+1 segments with segment i on layer k.
+  const best: number[][] = slowness.map(() => new Array(layers + 1).fill(Infinity));
+  const from: number[][] = slowness.map(() => new Array(layers + 1).fill(-1));
+  for (let k = 1; k <= layers; k++) best[0][k] = cost(0, k);
+  for (let i = 1; i < slowness.length; i++) {
+    for (let k = 1; k <= layers; k++) {
+      for (let j = 1; j < k; j++) {
+        const c = best[i - 1][j] + cost(i, k);
+        if (c < best[i][k]) { best[i][k] = c; from[i][k] = j; }
+      }
+    }
+  }
+  const last = slowness.length - 1;
+  let k = 1;
+  for (let j = 1; j <= layers; j++) if (best[last][j] < best[last][k]) k = j;
+  const result: number[] = [];
+  for (let i = last; i >= 0; i--) {
+    result.unshift(k);
+    k = from[i][k];
+  }
+  return result;
+}
+
+/**
+ * Layer velocities from the assigned segments.
+ *
+ * Layer 1 (the direct wave): the travel-time slope against straight-line source-receiver distance
+ * over all direct-wave picks, branch by branch, combined by inverse-variance weighting.
+ *
+ * Deeper layers: the true velocity and dip from the mean forward and reverse apparent slownesses
+ * sf and sr (Telford, Geldart & Sheriff 1990, §4.3): with V1 the top-layer velocity,
+ * θ = ½[asin(V1·sf) + asin(V1·sr)], δ = ½[asin(V1·sf) − asin(V1·sr)], V = V1 / sin θ. This is
+ * exact for planar refractors parallel to each other (the ray parameter along the surface is
+ * conserved through parallel layers). δ is positive when the refractor deepens towards +x.
+ * A layer seen from one side only keeps its apparent velocity, with a warning.
+ */
+export function layerVelocities(fits: BranchFit[], layerCount: number, warnings: WarningLog): Layer[] {
+  const layers: Layer[] = [];
+  const direct = fits.flatMap((f) => f.segments.filter((s) => s.layer === 1).map((s) => directSlowness(f, s)));
+  const v1Fit = weightedMean(direct.map((d) => d.slowness), direct.map((d) => d.se));
+  let v1: number | undefined;
+  let v1Se = 0;
+  if (v1Fit !== undefined) {
+    v1 = 1 / v1Fit.mean;
+    v1Se = v1Fit.se / v1Fit.mean ** 2;
+    layers.push({ index: 1, velocity: v1, velocitySe: v1Se, segmentCount: direct.length, reversed: hasBothSides(fits, 1) });
+  }
+  for (let k = v1 === undefined ? 1 : 2; k <= layerCount; k++) {
+    const side = (name: 'forward' | 'reverse') => {
+      const segs = fits.filter((f) => f.branch.side === name).flatMap((f) => f.segments.filter((s) => s.layer === k));
+      return weightedMean(segs.map((s) => s.slowness), segs.map((s) => s.slownessSe));
+    };
+    const fwd = side('forward');
+    const rev = side('reverse');
+    const count = fits.reduce((n, f) => n + f.segments.filter((s) => s.layer === k).length, 0);
+    if (count === 0) continue;
+    if (fwd !== undefined && rev !== undefined && v1 !== undefined && v1 * fwd.mean <= 1 && v1 * rev.mean <= 1) {
+      const trueVelocity = ([sf, sr, top]: number[]) => top / Math.sin((Math.asin(Math.min(1, top * sf)) + Math.asin(Math.min(1, top * sr))) / 2);
+      const dip = ([sf, sr, top]: number[]) => ((Math.asin(Math.min(1, top * sf)) - Math.asin(Math.min(1, top * sr))) / 2) * (180 / Math.PI);
+      const params = [fwd.mean, rev.mean, v1];
+      const ses = [fwd.se, rev.se, v1Se];
+      layers.push({
+        index: k,
+        velocity: trueVelocity(params),
+        velocitySe: propagate(trueVelocity, params, ses),
+        dipDeg: dip(params),
+        dipSeDeg: propagate(dip, params, ses),
+        forwardApparent: 1 / fwd.mean,
+        reverseApparent: 1 / rev.mean,
+        segmentCount: count,
+        reversed: true,
+      });
+    } else if (fwd !== undefined && rev !== undefined) {
+      // Slower than the top layer on a side: the angles are undefined; use the harmonic mean.
+      const harmonic = ([sf, sr]: number[]) => 2 / (sf + sr);
+      const params = [fwd.mean, rev.mean];
+      layers.push({
+        index: k, velocity: harmonic(params), velocitySe: propagate(harmonic, params, [fwd.se, rev.se]),
+        forwardApparent: 1 / fwd.mean, reverseApparent: 1 / rev.mean, segmentCount: count, reversed: true,
+      });
+    } else {
+      const one = (fwd ?? rev)!;
+      layers.push({
+        index: k, velocity: 1 / one.mean, velocitySe: one.se / one.mean ** 2,
+        forwardApparent: fwd ? 1 / fwd.mean : undefined, reverseApparent: rev ? 1 / rev.mean : undefined,
+        segmentCount: count, reversed: false,
+      });
+      warnings.add('unreversed-layer',
+        `layer ${k} is seen only by ${fwd ? 'forward (+x)' : 'reverse (-x)'} branches; its velocity ${Math.round(1 / one.mean)} m/s is apparent, not true, and its dip is unknown. Shoot the other end to reverse it`,
+        { layer: k });
+    }
+  }
+  return layers;
+}
+
+function hasBothSides(fits: BranchFit[], layer: number): boolean {
+  const sides = new Set(fits.filter((f) => f.segments.some((s) => s.layer === layer)).map((f) => f.branch.side));
+  return sides.size === 2;
+}
+
+/** Direct-wave slowness of one segment, fitted against straight-line distance (sloping ground). */
+function directSlowness(fit: BranchFit, segment: Segment): { slowness: number; se: number } {
+  const indices: number[] = [];
+  for (let i = segment.start; i < segment.end; i++) if (!fit.outlierRows.includes(fit.branch.picks[i].row)) indices.push(i);
+  const d = indices.map((i) => fit.branch.distances[i]);
+  const t = indices.map((i) => fit.branch.times[i]);
+  const flat = d.every((di, j) => Math.abs(di - fit.branch.offsets[indices[j]]) < 1e-9);
+  if (flat) return { slowness: segment.slowness, se: segment.slownessSe };
+  const line = new SimpleLinearRegression(d, t);
+  const mean = d.reduce((a, b) => a + b, 0) / d.length;
+  const sxx = d.reduce((a, b) => a + (b - mean) ** 2, 0);
+  return { slowness: line.slope, se: sxx > 0 ? fit.residualSd / Math.sqrt(sxx) : Infinity };
+}

@@ -1,0 +1,339 @@
+import { PolynomialRegression, SimpleLinearRegression } from 'ml-regression';
+
+/** Options for a segmented (piecewise linear) regression of time on offset. */
+export interface SegmentedOptions {
+  /** Largest number of segments tried; 1 to 4, default 4. */
+  maxSegments?: number;
+  /** Fix the number of segments instead of choosing it by the criterion. */
+  segments?: number;
+  /**
+   * Fix the breakpoints: offsets, in metres, at which a new segment starts (a pick at or beyond a
+   * breakpoint belongs to the next segment). Implies the segment count.
+   */
+  breakpoints?: number[];
+  /** Force the first segment through the origin (the direct wave; common practice). */
+  firstThroughOrigin?: boolean;
+  /** Fewest points in one segment; default 3 (two points leave no residual for a standard error). */
+  minPoints?: number;
+  /**
+   * Floor on the residual variance per point, in s², so that noise-free data do not make the
+   * criterion infinite; default (0.02 ms)².
+   */
+  varianceFloor?: number;
+}
+
+export interface LineSegment {
+  /** Index range [start, end) into the data. */
+  start: number;
+  end: number;
+  slope: number;
+  slopeSe: number;
+  intercept: number;
+  interceptSe: number;
+  throughOrigin: boolean;
+}
+
+export interface SegmentedFit {
+  segments: LineSegment[];
+  /** Indices of points left out as outliers. */
+  outliers: number[];
+  /** Pooled residual standard deviation of the chosen fit. */
+  residualSd: number;
+  /** BIC for each segment count tried (index 0 = one segment); undefined where none fits. */
+  bic: (number | undefined)[];
+  /** True when the least-squares optimum had a slope increasing with offset and the data insisted on it. */
+  slopeIncreaseKept: boolean;
+  chosenBy: 'criterion' | 'user';
+}
+
+/**
+ * How much better, in BIC units, an order with a slope increasing with offset (a velocity
+ * decreasing with depth) must fit than the best decreasing-slope order before it is kept:
+ * 10 is "very strong" evidence on the scale of Kass & Raftery (1995), J. Am. Stat. Assoc. 90, 773.
+ */
+const INVERSION_EVIDENCE_BIC = 10;
+
+/**
+ * Adjacent segments must differ in apparent velocity by at least this factor: a smaller contrast
+ * is within what noise and mild curvature of one layer's branch produce, and gives no usable
+ * refractor depth (the depth factor 1 / cos θ grows without bound as the contrast vanishes).
+ * Our own rule, stated here and in DEVELOPERS.md.
+ */
+export const MIN_VELOCITY_CONTRAST = 1.1;
+
+/** Modified z-score beyond which a residual is an outlier (Iglewicz & Hoaglin 1993). */
+const OUTLIER_Z = 3.5;
+
+/**
+ * Segmented regression of y on x (x sorted ascending) by an exact search: for each segment
+ * count the breakpoints minimising the total squared residual are found by dynamic programming
+ * over all contiguous partitions (Bellman 1961), with slopes required to decrease along x
+ * (velocity increasing with depth) unless the unconstrained optimum is better by very strong
+ * evidence. The segment count (1 to maxSegments) is the one with the lowest Bayesian information
+ * criterion, BIC = n ln(RSS/n) + k ln n with k = 3m − 1 parameters for m segments (two per line,
+ * one per breakpoint; Schwarz 1978, Ann. Stat. 6, 461). Outliers are flagged where the modified
+ * z-score of the residual, 0.6745 (r − median) / MAD, exceeds 3.5 (Iglewicz & Hoaglin 1993), and
+ * the fit is repeated without them. Lines are fitted with ml-regression.
+ *
+ * @param x - offsets, in metres, ascending
+ * @param y - times, in seconds
+ * @returns undefined when there are fewer than minPoints points (no line with a standard error)
+ * @throws RangeError for a maxSegments outside 1 to 4 or breakpoints that leave a segment too short
+ * @example
+ * segmentedRegression([0,1,2,3,4,5,6], [0,1,2,3,3.5,4,4.5])!.segments.length // 2
+ */
+export function segmentedRegression(x: number[], y: number[], options: SegmentedOptions = {}): SegmentedFit | undefined {
+  const minPoints = options.minPoints ?? 3;
+  if (x.length < minPoints) return undefined;
+  const maxSegments = options.maxSegments ?? 4;
+  if (!(maxSegments >= 1 && maxSegments <= 4)) throw new RangeError(`maxSegments must be 1 to 4, got ${maxSegments}`);
+  const all = x.map((_, i) => i);
+  let fit = fitSubset(x, y, all, options, maxSegments, minPoints);
+  if (fit === undefined) return undefined;
+  const outliers = flagOutliers(x, y, all, fit.segments);
+  if (outliers.length > 0 && x.length - outliers.length >= minPoints) {
+    const kept = all.filter((i) => !outliers.includes(i));
+    const refit = fitSubset(x, y, kept, options, maxSegments, minPoints);
+    if (refit !== undefined) return { ...refit, outliers };
+  }
+  return { ...fit, outliers: [] };
+}
+
+interface Sums { n: number[]; sx: number[]; sy: number[]; sxx: number[]; sxy: number[]; syy: number[] }
+
+function prefixSums(x: number[], y: number[]): Sums {
+  const s: Sums = { n: [0], sx: [0], sy: [0], sxx: [0], sxy: [0], syy: [0] };
+  for (let i = 0; i < x.length; i++) {
+    s.n.push(i + 1);
+    s.sx.push(s.sx[i] + x[i]);
+    s.sy.push(s.sy[i] + y[i]);
+    s.sxx.push(s.sxx[i] + x[i] * x[i]);
+    s.sxy.push(s.sxy[i] + x[i] * y[i]);
+    s.syy.push(s.syy[i] + y[i] * y[i]);
+  }
+  return s;
+}
+
+/** Least-squares line of points [i, j) from the prefix sums: slope and residual sum of squares. */
+function rangeLine(s: Sums, i: number, j: number, throughOrigin: boolean): { slope: number; rss: number } {
+  const n = j - i;
+  const sx = s.sx[j] - s.sx[i];
+  const sy = s.sy[j] - s.sy[i];
+  const sxx = s.sxx[j] - s.sxx[i];
+  const sxy = s.sxy[j] - s.sxy[i];
+  const syy = s.syy[j] - s.syy[i];
+  if (throughOrigin) {
+    const slope = sxx > 0 ? sxy / sxx : 0;
+    return { slope, rss: Math.max(0, syy - slope * sxy) };
+  }
+  const cxx = sxx - (sx * sx) / n;
+  const cxy = sxy - (sx * sy) / n;
+  const cyy = syy - (sy * sy) / n;
+  if (cxx <= 0) return { slope: 0, rss: Math.max(0, cyy) };
+  const slope = cxy / cxx;
+  return { slope, rss: Math.max(0, cyy - slope * cxy) };
+}
+
+interface Partition { cuts: number[]; rss: number }
+
+function fitSubset(
+  xAll: number[], yAll: number[], keep: number[], options: SegmentedOptions, maxSegments: number, minPoints: number,
+): Omit<SegmentedFit, 'outliers'> | undefined {
+  const x = keep.map((i) => xAll[i]);
+  const y = keep.map((i) => yAll[i]);
+  const n = x.length;
+  const sums = prefixSums(x, y);
+  const origin = options.firstThroughOrigin ?? false;
+  const floor = (options.varianceFloor ?? (0.02e-3) ** 2) * n;
+  const bicOf = (rss: number, m: number) => n * Math.log((rss + floor) / n) + (3 * m - 1 - (origin ? 1 : 0)) * Math.log(n);
+
+  if (options.breakpoints !== undefined) {
+    const bps = [...options.breakpoints].sort((a, b) => a - b);
+    const cuts = bps.map((b) => x.findIndex((xi) => xi >= b)).map((c) => (c < 0 ? n : c));
+    const bounds = [0, ...cuts, n];
+    for (let k = 0; k + 1 < bounds.length; k++) {
+      if (bounds[k + 1] - bounds[k] < minPoints) {
+        throw new RangeError(`breakpoints ${bps.join(', ')} m leave segment ${k + 1} with ${bounds[k + 1] - bounds[k]} picks; expected at least ${minPoints}`);
+      }
+    }
+    const partition = { cuts, rss: partitionRss(sums, cuts, n, origin) };
+    return finish(x, y, keep, partition, origin, [bicOf(partition.rss, cuts.length + 1)], false, 'user');
+  }
+  const fixed = options.segments;
+  if (fixed !== undefined && !(Number.isInteger(fixed) && fixed >= 1 && fixed <= 4)) {
+    throw new RangeError(`the segment count must be 1 to 4, got ${fixed}`);
+  }
+  const top = fixed ?? maxSegments;
+  const bic: (number | undefined)[] = [];
+  const chosen: ({ partition: Partition; inverted: boolean } | undefined)[] = [];
+  for (let m = 1; m <= top; m++) {
+    if (m * minPoints > n) break;
+    const free = bestPartition(sums, n, m, minPoints, origin);
+    let choice: { partition: Partition; inverted: boolean } | undefined = { partition: free, inverted: false };
+    const slopes = segmentSlopes(sums, free.cuts, n, origin);
+    if (!contrasted(slopes, false)) {
+      const constrained = bestDecreasingPartition(sums, n, m, minPoints, origin);
+      const insists = contrasted(slopes, true)
+        && (constrained === undefined || bicOf(constrained.rss, m) - bicOf(free.rss, m) > INVERSION_EVIDENCE_BIC);
+      choice = insists ? { partition: free, inverted: true } : constrained && { partition: constrained, inverted: false };
+    }
+    if (choice === undefined) continue;
+    bic[m - 1] = bicOf(choice.partition.rss, m);
+    chosen[m - 1] = choice;
+  }
+  if (fixed !== undefined && chosen[fixed - 1] === undefined) {
+    throw new RangeError(fixed * minPoints > n
+      ? `${fixed} segments need at least ${fixed * minPoints} picks; the branch has ${n}`
+      : `no split into ${fixed} segments gives apparent velocities each at least ${Math.round((MIN_VELOCITY_CONTRAST - 1) * 100)} % faster than the one before; fix the breakpoints instead`);
+  }
+  let best = fixed === undefined ? -1 : fixed - 1;
+  if (fixed === undefined) {
+    for (let m = 0; m < chosen.length; m++) if (chosen[m] !== undefined && (best < 0 || bic[m]! < bic[best]!)) best = m;
+  }
+  if (best < 0) return undefined;
+  return finish(x, y, keep, chosen[best]!.partition, origin, bic, chosen[best]!.inverted, fixed === undefined ? 'criterion' : 'user');
+}
+
+function partitionRss(s: Sums, cuts: number[], n: number, origin: boolean): number {
+  const bounds = [0, ...cuts, n];
+  let rss = 0;
+  for (let k = 0; k + 1 < bounds.length; k++) rss += rangeLine(s, bounds[k], bounds[k + 1], origin && k === 0).rss;
+  return rss;
+}
+
+function segmentSlopes(s: Sums, cuts: number[], n: number, origin: boolean): number[] {
+  const bounds = [0, ...cuts, n];
+  return bounds.slice(1).map((end, k) => rangeLine(s, bounds[k], end, origin && k === 0).slope);
+}
+
+/**
+ * True when every slope is positive and each differs from the one before by the minimum contrast:
+ * decreasing along x, or (with eitherWay) decreasing or increasing.
+ */
+function contrasted(slopes: number[], eitherWay: boolean): boolean {
+  if (!slopes.every((sl) => sl > 0)) return false;
+  for (let k = 1; k < slopes.length; k++) {
+    const ratio = slopes[k - 1] / slopes[k];
+    if (!(ratio >= MIN_VELOCITY_CONTRAST || (eitherWay && ratio <= 1 / MIN_VELOCITY_CONTRAST))) return false;
+  }
+  return true;
+}
+
+/** Exact least-squares partition into m contiguous segments by dynamic programming. */
+function bestPartition(s: Sums, n: number, m: number, minPoints: number, origin: boolean): Partition {
+  // cost[k][j]: least rss of the first j points in k segments; from[k][j]: start of the last segment.
+  const cost: number[][] = [];
+  const from: number[][] = [];
+  for (let k = 1; k <= m; k++) {
+    cost[k] = new Array(n + 1).fill(Infinity);
+    from[k] = new Array(n + 1).fill(-1);
+    for (let j = k * minPoints; j <= n; j++) {
+      if (k === 1) {
+        cost[1][j] = rangeLine(s, 0, j, origin).rss;
+        from[1][j] = 0;
+        continue;
+      }
+      for (let i = (k - 1) * minPoints; i <= j - minPoints; i++) {
+        const c = cost[k - 1][i] + rangeLine(s, i, j, false).rss;
+        if (c < cost[k][j]) {
+          cost[k][j] = c;
+          from[k][j] = i;
+        }
+      }
+    }
+  }
+  const cuts: number[] = [];
+  let j = n;
+  for (let k = m; k > 1; k--) {
+    j = from[k][j];
+    cuts.unshift(j);
+  }
+  return { cuts, rss: cost[m][n] };
+}
+
+/**
+ * Exhaustive search over every partition whose slopes decrease along x by the minimum contrast;
+ * undefined if none does.
+ */
+function bestDecreasingPartition(s: Sums, n: number, m: number, minPoints: number, origin: boolean): Partition | undefined {
+  let best: Partition | undefined;
+  const cuts: number[] = [];
+  const visit = (k: number, start: number, previousSlope: number, rss: number) => {
+    if (best !== undefined && rss >= best.rss) return;
+    if (k === m) {
+      const last = rangeLine(s, start, n, origin && k === 1);
+      if (last.slope > 0 && last.slope * MIN_VELOCITY_CONTRAST <= previousSlope && (best === undefined || rss + last.rss < best.rss)) {
+        best = { cuts: [...cuts], rss: rss + last.rss };
+      }
+      return;
+    }
+    for (let end = start + minPoints; end <= n - (m - k) * minPoints; end++) {
+      const line = rangeLine(s, start, end, origin && k === 1);
+      if (!(line.slope > 0) || line.slope * MIN_VELOCITY_CONTRAST > previousSlope) continue;
+      cuts.push(end);
+      visit(k + 1, end, line.slope, rss + line.rss);
+      cuts.pop();
+    }
+  };
+  visit(1, 0, Infinity, 0);
+  return best;
+}
+
+function finish(
+  x: number[], y: number[], keep: number[], partition: Partition, origin: boolean,
+  bic: (number | undefined)[], slopeIncreaseKept: boolean, chosenBy: 'criterion' | 'user',
+): Omit<SegmentedFit, 'outliers'> {
+  const n = x.length;
+  const bounds = [0, ...partition.cuts, n];
+  const m = bounds.length - 1;
+  const dof = n - (2 * m - (origin ? 1 : 0));
+  const residualSd = dof > 0 ? Math.sqrt(partition.rss / dof) : 0;
+  const segments: LineSegment[] = [];
+  for (let k = 0; k < m; k++) {
+    const xs = x.slice(bounds[k], bounds[k + 1]);
+    const ys = y.slice(bounds[k], bounds[k + 1]);
+    const throughOrigin = origin && k === 0;
+    const count = xs.length;
+    const mean = xs.reduce((a, b) => a + b, 0) / count;
+    const sxx = xs.reduce((a, b) => a + (b - mean) ** 2, 0);
+    let slope: number;
+    let intercept: number;
+    let slopeSe: number;
+    let interceptSe: number;
+    if (throughOrigin) {
+      const fit = new PolynomialRegression(xs, ys, [1], { interceptAtZero: true });
+      slope = fit.coefficients[0];
+      intercept = 0;
+      slopeSe = residualSd / Math.sqrt(xs.reduce((a, b) => a + b * b, 0));
+      interceptSe = 0;
+    } else {
+      const fit = new SimpleLinearRegression(xs, ys);
+      slope = fit.slope;
+      intercept = fit.intercept;
+      // Standard errors of an ordinary least-squares line with the pooled residual deviation of the branch.
+      slopeSe = sxx > 0 ? residualSd / Math.sqrt(sxx) : Infinity;
+      interceptSe = sxx > 0 ? residualSd * Math.sqrt(1 / count + (mean * mean) / sxx) : Infinity;
+    }
+    segments.push({ start: keep[bounds[k]], end: keep[bounds[k + 1] - 1] + 1, slope, slopeSe, intercept, interceptSe, throughOrigin });
+  }
+  return { segments, residualSd, bic, slopeIncreaseKept, chosenBy };
+}
+
+/** Points whose residual from their segment's line has a modified z-score above 3.5. */
+function flagOutliers(x: number[], y: number[], keep: number[], segments: LineSegment[]): number[] {
+  const residuals: { index: number; r: number }[] = [];
+  for (const seg of segments) {
+    for (const i of keep) {
+      if (i >= seg.start && i < seg.end) residuals.push({ index: i, r: y[i] - (seg.intercept + seg.slope * x[i]) });
+    }
+  }
+  const median = (v: number[]) => {
+    const s = [...v].sort((a, b) => a - b);
+    const h = s.length >> 1;
+    return s.length % 2 ? s[h] : (s[h - 1] + s[h]) / 2;
+  };
+  const med = median(residuals.map((e) => e.r));
+  // Floor the spread at 0.05 ms so that near-exact data do not flag rounding as outliers.
+  const mad = Math.max(median(residuals.map((e) => Math.abs(e.r - med))), 0.05e-3);
+  return residuals.filter((e) => (0.6745 * Math.abs(e.r - med)) / mad > OUTLIER_Z).map((e) => e.index);
+}

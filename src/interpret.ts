@@ -1,0 +1,94 @@
+import { checkLayerCautions, depthCautions, type Caution } from './core/cautions.js';
+import { median } from './core/stats.js';
+import type { FirstBreakTable, Interpretation, Layer, Refractor, Wave } from './core/types.js';
+import { WarningLog } from './core/warnings.js';
+import { interceptTimeDepths } from './depth/interceptTime.js';
+import { splitBranches } from './fit/branches.js';
+import { fitBranches, type BranchChoices } from './fit/fitBranches.js';
+import { assignLayers, layerVelocities } from './fit/layers.js';
+
+export const VERSION = '0.1.0';
+
+/** Options of one interpretation. */
+export interface InterpretOptions extends BranchChoices {
+  /** Wave type when the table does not say; default P. */
+  wave?: Wave;
+  /** Leave out sides of a source with fewer than three picks instead of stopping. */
+  allowShortBranches?: boolean;
+}
+
+export interface InterpretationResult extends Interpretation {
+  cautions: Caution[];
+}
+
+/**
+ * The pipeline after picking: branches, segmented regression, layers, depths, cautions.
+ * The command line and the web app both call this and hold no interpretation logic of their own.
+ *
+ * @param table - first breaks, in SI units (see readFirstBreaks)
+ * @param options - segment choices and wave type
+ * @param log - collects warnings; the reader's warnings, if passed the same log, are kept with them
+ * @throws InputError for input the interpretation cannot use (too few picks, impossible choices)
+ */
+export function interpret(table: FirstBreakTable, options: InterpretOptions = {}, log: WarningLog = new WarningLog()): InterpretationResult {
+  const wave: Wave = options.wave ?? table.wave ?? 'P';
+  const history: Interpretation['history'] = [];
+  const branches = splitBranches(table.picks, log, { file: table.file, allowShortBranches: options.allowShortBranches });
+  history.push({ step: 'splitBranches', parameters: { branches: branches.length, allowShortBranches: options.allowShortBranches ?? false } });
+
+  const fits = fitBranches(branches, options, table.file, log);
+  history.push({
+    step: 'segmentedRegression',
+    parameters: { criterion: 'BIC', maxSegments: options.maxSegments ?? 4, directThroughOrigin: options.directThroughOrigin ?? false, fixedSegments: options.segments ?? {}, fixedBreakpoints_m: options.breakpoints ?? {}, outlierRule: 'modified z-score > 3.5' },
+  });
+
+  const spacing = receiverSpacing(table);
+  const layerCount = assignLayers(fits, spacing, log);
+  const layers: Layer[] = layerVelocities(fits, layerCount, log);
+  history.push({ step: 'layers', parameters: { layers: layers.length, receiverSpacing_m: spacing, trueVelocity: 'Telford et al. 1990 §4.3 (up/down-dip)' } });
+  checkLayerCautions(layers, wave, log);
+
+  const usable = usableLayers(layers);
+  const intercept = interceptTimeDepths(fits, usable, log);
+  const refractors: Refractor[] = intercept.map((points, i) => ({
+    index: i + 1,
+    method: 'intercept-time',
+    points,
+    byMethod: { 'intercept-time': points },
+  }));
+  history.push({ step: 'depths', parameters: { methods: ['intercept-time'], refractors: refractors.length } });
+
+  const used = fits.reduce((n, f) => n + f.branch.picks.length - f.outlierRows.length, 0);
+  const sumSquares = fits.reduce((a, f) => a + f.residualSd ** 2 * Math.max(1, f.branch.picks.length - f.outlierRows.length - 2 * f.segments.length), 0);
+  const dof = fits.reduce((a, f) => a + Math.max(1, f.branch.picks.length - f.outlierRows.length - 2 * f.segments.length), 0);
+  return {
+    file: table.file,
+    wave,
+    layers,
+    refractors,
+    fits,
+    warnings: log.items,
+    cautions: depthCautions(wave),
+    history,
+    fitRmsSeconds: Math.sqrt(sumSquares / dof),
+    picksUsed: used,
+    picksTotal: table.picks.length,
+  };
+}
+
+/** Layers down to the first one not faster than the layer above (no depths below an inversion). */
+function usableLayers(layers: Layer[]): Layer[] {
+  const usable: Layer[] = [];
+  for (const layer of layers) {
+    if (usable.length > 0 && layer.velocity <= usable[usable.length - 1].velocity) break;
+    usable.push(layer);
+  }
+  return usable;
+}
+
+/** Median spacing of distinct receiver positions, in metres. */
+export function receiverSpacing(table: FirstBreakTable): number {
+  const xs = [...new Set(table.picks.map((p) => p.receiverX))].sort((a, b) => a - b);
+  const gaps = xs.slice(1).map((x, i) => x - xs[i]);
+  return median(gaps) ?? 1;
+}

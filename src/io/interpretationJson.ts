@@ -1,0 +1,74 @@
+import type { BranchFit, RefractorPoint } from '../core/types.js';
+import type { InterpretationResult } from '../interpret.js';
+import { VERSION } from '../interpret.js';
+
+/** Version tag of the JSON document; change it when a stable field changes meaning. */
+export const INTERPRETATION_SCHEMA = 'hammerline/interpretation@1';
+
+const round = (value: number | undefined, digits: number) =>
+  value === undefined || !Number.isFinite(value) ? null : Number(value.toFixed(digits));
+
+function point(p: RefractorPoint) {
+  return { x_m: round(p.x, 3), depth_m: round(p.depth, 3), elev_m: round(p.elev, 3), depth_se_m: round(p.depthSe, 3), ...(p.sourceId ? { source_id: p.sourceId } : {}) };
+}
+
+function branch(fit: BranchFit) {
+  return {
+    source_id: fit.branch.sourceId,
+    side: fit.branch.side,
+    source_x_m: round(fit.branch.sourceX, 3),
+    picks: fit.branch.picks.length,
+    segments: fit.segments.map((s) => ({
+      layer: s.layer,
+      first_offset_m: round(s.firstOffset, 3),
+      last_offset_m: round(s.lastOffset, 3),
+      apparent_velocity_mps: round(s.apparentVelocity, 1),
+      apparent_velocity_se_mps: round(s.slownessSe / s.slowness ** 2, 1),
+      intercept_ms: round(s.intercept * 1e3, 3),
+      intercept_se_ms: round(s.interceptSe * 1e3, 3),
+      picks_used: s.used,
+      through_origin: s.throughOrigin,
+    })),
+    outlier_rows: fit.outlierRows,
+    residual_sd_ms: round(fit.residualSd * 1e3, 3),
+    segments_chosen_by: fit.chosenBy === 'user' ? 'user' : 'BIC',
+    bic_by_segment_count: fit.criterionBySegments.map((b) => round(b, 2)),
+  };
+}
+
+/**
+ * The JSON document of one interpretation (DESIGN.md contract, schema hammerline/interpretation@1).
+ * Always SI: lengths in metres, velocities in m/s, times in milliseconds where a field says _ms.
+ */
+export function interpretationJson(result: InterpretationResult, extra: Record<string, unknown> = {}): Record<string, unknown> {
+  return {
+    schema: INTERPRETATION_SCHEMA,
+    program: { name: 'hammerline', version: VERSION },
+    file: result.file,
+    wave: result.wave,
+    units: { length: 'm', velocity: 'm/s', time: 'ms', dip: 'degrees, positive when the refractor deepens towards +x' },
+    layers: result.layers.map((l) => ({
+      index: l.index,
+      velocity_mps: round(l.velocity, 1),
+      velocity_se_mps: round(l.velocitySe, 1),
+      dip_deg: round(l.dipDeg, 2),
+      dip_se_deg: round(l.dipSeDeg, 2),
+      reversed: l.reversed,
+      forward_apparent_mps: round(l.forwardApparent, 1),
+      reverse_apparent_mps: round(l.reverseApparent, 1),
+      segments: l.segmentCount,
+    })),
+    refractors: result.refractors.map((r) => ({
+      index: r.index,
+      method: r.method,
+      points: r.points.map(point),
+      by_method: Object.fromEntries(Object.entries(r.byMethod).map(([m, pts]) => [m, pts.map(point)])),
+    })),
+    branches: result.fits.map(branch),
+    qc: { fit_rms_ms: round(result.fitRmsSeconds * 1e3, 3), picks_used: result.picksUsed, picks_total: result.picksTotal },
+    ...extra,
+    warnings: result.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.layer ? { layer: w.layer } : {}) })),
+    cautions: result.cautions,
+    history: result.history,
+  };
+}

@@ -1,0 +1,70 @@
+import { fromMetres, velocityLabel, type LengthUnit } from '../core/units.js';
+import type { InterpretationResult } from '../interpret.js';
+import { VERSION } from '../interpret.js';
+
+/** A plain-text table: columns padded to their widest cell, numbers right-aligned. */
+export function table(header: string[], rows: string[][]): string[] {
+  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? '').length)));
+  const line = (cells: string[]) => cells.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('   ').trimEnd();
+  return [line(header), line(widths.map((w) => '-'.repeat(w))), ...rows.map(line)];
+}
+
+/** Formats value ± se with the given decimals, for display. */
+export function plusMinus(value: number, se: number | undefined, digits: number): string {
+  if (se === undefined || !Number.isFinite(se)) return value.toFixed(digits);
+  return `${value.toFixed(digits)} ± ${se.toFixed(digits)}`;
+}
+
+/**
+ * The readable summary of an interpretation for the terminal: layers with velocity ± standard
+ * error, depths under each source, then every warning and caution that qualifies them.
+ *
+ * @param unit - display unit of lengths (velocities follow: m/s or ft/s)
+ */
+export function summary(result: InterpretationResult, unit: LengthUnit, extraSections: string[] = []): string {
+  const len = (m: number) => fromMetres(m, unit);
+  const vel = (mps: number) => fromMetres(mps, unit);
+  const vLabel = velocityLabel(unit);
+  const out: string[] = [];
+  out.push(`hammerline ${VERSION}: ${result.file}`);
+  const outliers = result.fits.reduce((n, f) => n + f.outlierRows.length, 0);
+  out.push(`${result.wave}-wave line, ${result.fits.length} branches from ${new Set(result.fits.map((f) => f.branch.sourceId)).size} sources, ${result.picksUsed} of ${result.picksTotal} picks used (${outliers} outlier${outliers === 1 ? '' : 's'} left out), line-fit RMS ${(result.fitRmsSeconds * 1e3).toFixed(2)} ms`);
+  out.push('');
+  out.push(`Layers (velocity ± standard error; true velocity and dip from forward and reverse branches)`);
+  out.push(...table(
+    ['layer', `velocity (${vLabel})`, 'dip of top (deg)', 'seen by'],
+    result.layers.map((l) => [
+      String(l.index),
+      plusMinus(vel(l.velocity), vel(l.velocitySe), 0),
+      l.dipDeg === undefined ? (l.index === 1 ? 'surface' : 'unknown') : plusMinus(l.dipDeg, l.dipSeDeg, 1),
+      `${l.segmentCount} segment${l.segmentCount === 1 ? '' : 's'}${l.reversed ? ', reversed' : ', one side only (apparent velocity)'}`,
+    ]),
+  ).map((s) => `  ${s}`));
+  out.push('');
+  if (result.refractors.length === 0) {
+    out.push('No refractor: the picks fit a single line (the direct wave), so there is no depth to report.');
+  }
+  for (const r of result.refractors) {
+    const top = result.layers[r.index];
+    out.push(`Refractor ${r.index} (top of layer ${r.index + 1}, ${Math.round(vel(top.velocity))} ${vLabel}): depth under each source, ${r.method} method`);
+    if (r.points.length === 0) {
+      out.push('  no source gives an intercept time for this refractor');
+    } else {
+      out.push(...table(
+        ['source', `x (${unit})`, `depth (${unit})`, `elevation (${unit})`],
+        r.points.map((p) => [p.sourceId ?? '', len(p.x).toFixed(2), plusMinus(len(p.depth), len(p.depthSe), 2), len(p.elev).toFixed(2)]),
+      ).map((s) => `  ${s}`));
+    }
+    const qualifying = result.warnings.filter((w) => w.layer === r.index + 1);
+    for (const w of qualifying) out.push(`  ! ${w.message}`);
+    out.push('');
+  }
+  out.push(...extraSections);
+  const general = result.warnings;
+  out.push(general.length === 0 ? 'Warnings: none' : `Warnings (${general.length})`);
+  for (const w of general) out.push(`  - [${w.code}] ${w.message}`);
+  out.push('');
+  out.push('Cautions');
+  for (const c of result.cautions) out.push(`  - ${c.message}`);
+  return out.join('\n') + '\n';
+}
