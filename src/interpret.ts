@@ -1,10 +1,10 @@
 import { checkLayerCautions, depthCautions, type Caution } from './core/cautions.js';
 import { median } from './core/stats.js';
-import type { FirstBreakTable, Interpretation, Layer, Refractor, Wave } from './core/types.js';
+import type { BranchFit, FirstBreakTable, Interpretation, Layer, Refractor, Wave } from './core/types.js';
 import { WarningLog } from './core/warnings.js';
 import { interceptTimeDepths } from './depth/interceptTime.js';
 import { splitBranches } from './fit/branches.js';
-import { fitBranches, type BranchChoices } from './fit/fitBranches.js';
+import { branchName, fitBranches, type BranchChoices } from './fit/fitBranches.js';
 import { assignLayers, layerVelocities } from './fit/layers.js';
 
 export const VERSION = '0.1.0';
@@ -36,13 +36,27 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   const branches = splitBranches(table.picks, log, { file: table.file, allowShortBranches: options.allowShortBranches });
   history.push({ step: 'splitBranches', parameters: { branches: branches.length, allowShortBranches: options.allowShortBranches ?? false } });
 
-  const fits = fitBranches(branches, options, table.file, log);
+  const spacing = receiverSpacing(table);
+  const readerWarnings = log.items.length;
+  let fits = fitBranches(branches, options, table.file, log);
+  const capped = loneDeepestBranches(fits, spacing);
+  if (capped.length > 0) {
+    // Fit again from scratch so that no warning of the discarded fits survives.
+    log.items.length = readerWarnings;
+    const segments = { ...(options.segments ?? {}) };
+    for (const { fit } of capped) segments[branchName(fit.branch)] = fit.segments.length - 1;
+    fits = fitBranches(branches, { ...options, segments }, table.file, log);
+    for (const { fit, seenBeyond } of capped) {
+      log.add('layer-dropped',
+        `${branchName(fit.branch)} branch: its last segment (from ${fit.segments[fit.segments.length - 1].firstOffset.toFixed(1)} m offset) would be a layer no other branch sees, although ${seenBeyond} reach${seenBeyond.includes(',') ? '' : 'es'} farther on the same side; fitted with one segment fewer. Fix its segments if the layer is real`,
+        { where: { file: table.file, source: fit.branch.sourceId } });
+    }
+  }
   history.push({
     step: 'segmentedRegression',
     parameters: { criterion: 'BIC', maxSegments: options.maxSegments ?? 4, directThroughOrigin: options.directThroughOrigin ?? false, fixedSegments: options.segments ?? {}, fixedBreakpoints_m: options.breakpoints ?? {}, outlierRule: 'modified z-score > 3.5' },
   });
 
-  const spacing = receiverSpacing(table);
   const layerCount = assignLayers(fits, spacing, log);
   const layers: Layer[] = layerVelocities(fits, layerCount, log);
   history.push({ step: 'layers', parameters: { layers: layers.length, receiverSpacing_m: spacing, trueVelocity: 'Telford et al. 1990 §4.3 (up/down-dip)' } });
@@ -91,4 +105,23 @@ export function receiverSpacing(table: FirstBreakTable): number {
   const xs = [...new Set(table.picks.map((p) => p.receiverX))].sort((a, b) => a - b);
   const gaps = xs.slice(1).map((x, i) => x - xs[i]);
   return median(gaps) ?? 1;
+}
+
+/**
+ * Branches near their source whose deepest segment is a layer seen by no other such branch
+ * although others on the same side reach farther: a deeper layer shows on every branch long enough
+ * to see it, so a lone one is taken for noise. Branches whose segments the user fixed are left alone.
+ */
+function loneDeepestBranches(fits: BranchFit[], spacing: number): { fit: BranchFit; seenBeyond: string }[] {
+  const near = fits.filter((f) => f.branch.offsets.find((o) => o > 0)! <= 2.01 * spacing);
+  if (near.length < 2) return [];
+  const deepest = Math.max(...near.map((f) => f.segments.length));
+  const members = near.filter((f) => f.segments.length === deepest);
+  if (deepest < 2 || members.length !== 1 || members[0].chosenBy === 'user') return [];
+  const fit = members[0];
+  const last = fit.segments[fit.segments.length - 1];
+  const longer = near.filter((f) => f !== fit && f.branch.side === fit.branch.side
+    && f.branch.offsets[f.branch.offsets.length - 1] >= last.firstOffset + 2 * spacing);
+  if (longer.length === 0) return [];
+  return [{ fit, seenBeyond: longer.map((f) => branchName(f.branch)).join(', ') }];
 }

@@ -13,3 +13,15 @@ declare module 'ml-regression' {
     predict(x: number): number;
   }
 }
+
+declare module 'ml-regression' {
+  export class MultivariateLinearRegression {
+    constructor(x: number[][], y: number[][], options?: { intercept?: boolean; statistics?: boolean });
+    /** Coefficients, one row per input (the intercept last when fitted), one column per output. */
+    weights: number[][];
+    /** Residual standard deviation with n − p degrees of freedom. */
+    stdError: number;
+    /** Covariance matrix of the coefficients, in the order of `weights`. */
+    stdErrorMatrix: { get(row: number, column: number): number };
+  }
+}

@@ -79,6 +79,11 @@ export interface Segment {
   used: number;
   /** True when the fit was forced through the origin (direct wave, common practice). */
   throughOrigin: boolean;
+  /**
+   * Crossover distance: the offset, in metres, where this segment's line meets the previous
+   * segment's line (undefined for the first segment).
+   */
+  crossoverOffset?: number;
 }
 
 /** Result of fitting one branch. */

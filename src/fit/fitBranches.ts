@@ -63,6 +63,9 @@ export function fitBranches(branches: Branch[], choices: BranchChoices, file: st
       used: countUsed(line.start, line.end, fit.outliers),
       throughOrigin: line.throughOrigin,
     }));
+    for (let k = 1; k < segments.length; k++) {
+      segments[k].crossoverOffset = fit.segments[k].knot ?? crossoverDistance(segments[k - 1], segments[k]);
+    }
     const outlierRows = fit.outliers.map((i) => branch.picks[i].row);
     if (outlierRows.length > 0) {
       warnings.add('outlier-pick',
@@ -93,4 +96,18 @@ export function fitBranches(branches: Branch[], choices: BranchChoices, file: st
 
 function countUsed(start: number, end: number, outliers: number[]): number {
   return end - start - outliers.filter((i) => i >= start && i < end).length;
+}
+
+/**
+ * Crossover distance of two straight segments of a time-offset graph: the offset where
+ * t = a₁ + s₁x meets t = a₂ + s₂x, x = (a₂ − a₁) / (s₁ − s₂) (Telford, Geldart & Sheriff 1990, §4.2).
+ *
+ * @returns the offset in metres, or undefined for parallel lines
+ * @example
+ * crossoverDistance({ intercept: 0, slowness: 1 / 500 }, { intercept: 0.02, slowness: 1 / 2000 }) // 13.33
+ */
+export function crossoverDistance(first: Pick<Segment, 'intercept' | 'slowness'>, second: Pick<Segment, 'intercept' | 'slowness'>): number | undefined {
+  const slownessDifference = first.slowness - second.slowness;
+  if (slownessDifference === 0) return undefined;
+  return (second.intercept - first.intercept) / slownessDifference;
 }

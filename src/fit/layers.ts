@@ -18,7 +18,8 @@ const NEW_LAYER_RATIO = 1.25;
  * Assigns each branch segment to a layer. Branches whose first pick is near their source see the
  * direct wave, so their segment k is layer k. Branches from sources off the ends start on a deeper
  * layer: their segments are matched, in order, to the layer whose median slowness they are
- * closest to (in ratio). Segments far from their layer's median are warned about.
+ * closest to (in ratio) among branches on the same side (up-dip and down-dip apparent velocities
+ * differ). Segments far from their layer's median on their side are warned about.
  *
  * @param spacing - receiver spacing, in metres, to judge "near the source"
  * @returns the number of layers
@@ -28,26 +29,37 @@ export function assignLayers(fits: BranchFit[], spacing: number, warnings: Warni
   const reference = fits.filter(near);
   const base = reference.length > 0 ? reference : fits;
   let layerCount = Math.max(...base.map((f) => f.segments.length));
-  const layerSlowness: number[] = [];
-  for (let k = 1; k <= layerCount; k++) {
-    layerSlowness[k] = median(base.flatMap((f) => f.segments.filter((s) => s.order === k).map((s) => s.slowness)))!;
-  }
+  // Up-dip and down-dip apparent velocities differ, so each side is matched against its own side.
+  const medianSlowness = (members: BranchFit[], k: number) =>
+    median(members.flatMap((f) => f.segments.filter((s) => s.layer === k).map((s) => s.slowness)));
   for (const fit of fits) {
     if (base.includes(fit)) continue;
-    const layers = matchInOrder(fit.segments.map((s) => s.slowness), layerSlowness, layerCount);
+    const sameSide = base.filter((f) => f.branch.side === fit.branch.side);
+    const references = sameSide.length > 0 ? sameSide : base;
+    const layerSlowness: number[] = [];
+    let known = 0;
+    for (let k = 1; k <= layerCount; k++) {
+      const m = medianSlowness(references, k) ?? medianSlowness(base, k);
+      if (m === undefined) break;
+      layerSlowness[k] = m;
+      known = k;
+    }
+    const layers = matchInOrder(fit.segments.map((s) => s.slowness), layerSlowness, known);
     fit.segments.forEach((s, i) => { s.layer = layers[i]; });
     layerCount = Math.max(layerCount, ...layers);
   }
   for (let k = 1; k <= layerCount; k++) {
-    const members = fits.flatMap((f) => f.segments.filter((s) => s.layer === k).map((s) => ({ f, s })));
-    const mid = median(members.map((m) => m.s.slowness));
-    if (mid === undefined) continue;
-    for (const { f, s } of members) {
-      const ratio = s.slowness / mid;
-      if (ratio > CONSISTENCY_RATIO || ratio < 1 / CONSISTENCY_RATIO) {
-        warnings.add('layer-consistency',
-          `${f.branch.sourceId}:${f.branch.side} segment ${s.order} (apparent velocity ${Math.round(s.apparentVelocity)} m/s) is assigned to layer ${k}, whose median apparent velocity is ${Math.round(1 / mid)} m/s; check the picks or fix the branch's segments`,
-          { layer: k });
+    for (const side of ['forward', 'reverse'] as const) {
+      const members = fits.filter((f) => f.branch.side === side).flatMap((f) => f.segments.filter((s) => s.layer === k).map((s) => ({ f, s })));
+      const mid = median(members.map((m) => m.s.slowness));
+      if (mid === undefined) continue;
+      for (const { f, s } of members) {
+        const ratio = s.slowness / mid;
+        if (ratio > CONSISTENCY_RATIO || ratio < 1 / CONSISTENCY_RATIO) {
+          warnings.add('layer-consistency',
+            `${f.branch.sourceId}:${f.branch.side} segment ${s.order} (apparent velocity ${Math.round(s.apparentVelocity)} m/s) is assigned to layer ${k}, whose median apparent velocity on ${side} branches is ${Math.round(1 / mid)} m/s; check the picks or fix the branch's segments`,
+            { layer: k });
+        }
       }
     }
   }

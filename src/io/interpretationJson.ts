@@ -26,6 +26,7 @@ function branch(fit: BranchFit) {
       apparent_velocity_se_mps: round(s.slownessSe / s.slowness ** 2, 1),
       intercept_ms: round(s.intercept * 1e3, 3),
       intercept_se_ms: round(s.interceptSe * 1e3, 3),
+      crossover_offset_m: round(s.crossoverOffset, 3),
       picks_used: s.used,
       through_origin: s.throughOrigin,
     })),
