@@ -6,8 +6,10 @@ import { interceptTimeDepths } from './depth/interceptTime.js';
 import { splitBranches } from './fit/branches.js';
 import { branchName, fitBranches, type BranchChoices } from './fit/fitBranches.js';
 import { assignLayers, layerVelocities } from './fit/layers.js';
+import { siteInputFromInterpretation, type VsFromVpOptions } from './site/fromInterpretation.js';
+import { assessSite, type SiteAssessment, type SiteOptions } from './site/siteAssessment.js';
 
-export const VERSION = '0.1.0';
+export const VERSION = '0.2.0';
 
 /** Options of one interpretation. */
 export interface InterpretOptions extends BranchChoices {
@@ -15,10 +17,16 @@ export interface InterpretOptions extends BranchChoices {
   wave?: Wave;
   /** Leave out sides of a source with fewer than three picks instead of stopping. */
   allowShortBranches?: boolean;
+  /** For a P line: the Poisson's ratio or Vp/Vs from which to estimate Vs for a site class. */
+  vsFromVp?: VsFromVpOptions;
+  /** Monte Carlo settings of the site assessment. */
+  site?: SiteOptions;
 }
 
 export interface InterpretationResult extends Interpretation {
   cautions: Caution[];
+  /** Vs30 and site classes: for S lines, and for P lines given a Poisson's ratio or Vp/Vs. */
+  site?: SiteAssessment;
 }
 
 /**
@@ -72,6 +80,16 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   }));
   history.push({ step: 'depths', parameters: { methods: ['intercept-time'], refractors: refractors.length } });
 
+  const receiverXs = [...new Set(table.picks.map((p) => p.receiverX))].sort((a, b) => a - b);
+  const siteInput = siteInputFromInterpretation({ file: table.file, wave, layers, refractors }, receiverXs, options.vsFromVp);
+  let site: SiteAssessment | undefined;
+  if (siteInput !== undefined && siteInput.stations.length > 0) {
+    site = assessSite(siteInput, options.site);
+    history.push({ step: 'site', parameters: { draws: site.draws, seed: site.seed, estimatedFromVp: site.estimatedFromVp, poisson: siteInput.poisson ?? null, stations: siteInput.stations.length } });
+  } else if (siteInput !== undefined) {
+    log.add('site-not-computed', 'no receiver lies where every refractor has a depth, so Vs30 cannot be computed along the line');
+  }
+
   const used = fits.reduce((n, f) => n + f.branch.picks.length - f.outlierRows.length, 0);
   const sumSquares = fits.reduce((a, f) => a + f.residualSd ** 2 * Math.max(1, f.branch.picks.length - f.outlierRows.length - 2 * f.segments.length), 0);
   const dof = fits.reduce((a, f) => a + Math.max(1, f.branch.picks.length - f.outlierRows.length - 2 * f.segments.length), 0);
@@ -87,6 +105,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     fitRmsSeconds: Math.sqrt(sumSquares / dof),
     picksUsed: used,
     picksTotal: table.picks.length,
+    site,
   };
 }
 

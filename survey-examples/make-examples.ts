@@ -15,6 +15,7 @@ interface Example {
   noiseMs: number;
   seed: number;
   wave?: 'S';
+  file?: string;
 }
 
 const examples: Example[] = [
@@ -52,12 +53,33 @@ const examples: Example[] = [
     noiseMs: 0.25,
     seed: 23,
   },
+  {
+    folder: 'alluvial-terrace',
+    file: 'sh-first-breaks.csv',
+    header: [
+      'Invented example: SH line T-2S along line T-2 on the fictional Orrin valley terrace (beam source, horizontal geophones).',
+      'True model: shear-wave velocities 160 m/s loose sandy gravel to 2.0 m, 300 m/s dense gravel to 11.0 m, 1050 m/s mudstone below (flat).',
+      'The water table at 3.2 m does not show: shear waves are not sped up by pore water.',
+      'Picks: independent forward model (Fermat least time) plus seeded Gaussian noise, sigma 0.4 ms, seed 31.',
+    ],
+    section: {
+      surface: () => 54.0,
+      interfaces: [() => 52.0, () => 43.0],
+      velocities: [160, 300, 1050],
+    },
+    sources: [-4.5, 0, 36, 70.5, 75],
+    receivers: Array.from({ length: 48 }, (_, i) => i * 1.5),
+    noiseMs: 0.4,
+    seed: 31,
+    wave: 'S',
+  },
 ];
 
 for (const example of examples) {
   const csv = syntheticCsv(example.section, example.sources, example.receivers, example.noiseMs, example.seed);
-  const text = example.header.map((line) => `# ${line}`).join('\n') + '\n' + csv;
-  const path = new URL(`./${example.folder}/first-breaks.csv`, import.meta.url);
+  const withWave = example.wave === undefined ? csv : csv.replace(/^(.*)$/gm, (line, _m, offset) => (line === '' ? line : `${line},${offset === 0 ? 'wave' : example.wave}`));
+  const text = example.header.map((line) => `# ${line}`).join('\n') + '\n' + withWave;
+  const path = new URL(`./${example.folder}/${example.file ?? 'first-breaks.csv'}`, import.meta.url);
   writeFileSync(path, text);
   process.stdout.write(`wrote ${path.pathname}\n`);
 }

@@ -5,8 +5,13 @@ import type { LengthUnit } from '../core/units.js';
 import { WarningLog } from '../core/warnings.js';
 import { readFirstBreaks } from '../io/firstBreaksCsv.js';
 import { interpretationJson } from '../io/interpretationJson.js';
-import { interpret, VERSION, type InterpretOptions } from '../interpret.js';
+import { interpret, VERSION, type InterpretationResult, type InterpretOptions } from '../interpret.js';
+import { siteJson } from '../io/siteJson.js';
+import { siteSummary } from '../report/siteSummary.js';
 import { summary } from '../report/summary.js';
+import { checkShearSlowerThanP } from '../site/fromInterpretation.js';
+import { assessSite, type SiteInput, type SiteOptions } from '../site/siteAssessment.js';
+import { fromMetres } from '../core/units.js';
 import { keyValue, numberOption } from './args.js';
 import { processIo, type CliIo } from './io.js';
 
@@ -14,6 +19,7 @@ const HELP = `hammerline ${VERSION}: seismic-refraction interpretation for shall
 
 Usage:
   hammerline interpret FILE.csv [FILE.csv ...] [options]
+  hammerline site --layer THICKNESS:VELOCITY[:SE] [--layer ...] [--halfspace VELOCITY[:SE]] [options]
   hammerline --help | --version
 
 interpret: reads first-break tables (CSV: source_id, source_x, source_elev, receiver_x,
@@ -36,6 +42,22 @@ Options for interpret:
                            where the trigger is sound)
   --allow-short-branches   leave out sides of a source with fewer than 3 picks instead of stopping
   -q, --quiet              no progress messages on stderr
+
+Site class (Vs30; ASCE 7-16, ASCE 7-22, EN 1998-1:2004), printed for S-wave lines, or for P-wave
+lines given a Poisson's ratio:
+  --poisson NU[,NU...]     Poisson's ratio, one for every layer or one per layer top down, to
+                           ESTIMATE Vs from Vp (the classes are then labelled estimated)
+  --vp-vs R[,R...]         the same as a Vp/Vs ratio
+  --p-line FILE.csv        the P-wave line over the same ground, to check that Vs < Vp
+  --draws N                Monte Carlo draws (at least 2000, default 4000)
+  --seed N                 Monte Carlo seed (default 1)
+
+site: classes a hand-entered shear-wave profile (for example from a downhole test):
+  --layer T:V[:SE]         a layer T thick (m, or ft with --units ft) at shear-wave velocity V
+                           (m/s or ft/s), with an optional standard error of V; top down, repeatable
+  --halfspace V[:SE]       velocity below the last layer (default: the last layer continues)
+  --estimated              the velocities are estimates, not measurements
+  --json, --units, --draws, --seed as above
 
 Exit status: 0 success, 2 bad input (message on stderr), 1 internal error.
 `;
@@ -69,7 +91,8 @@ function run(argv: string[], io: CliIo): number {
     return 0;
   }
   if (command === 'interpret') return interpretCommand(rest, io);
-  throw new InputError({}, `unknown command "${command}"; expected interpret (see hammerline --help)`);
+  if (command === 'site') return siteCommand(rest, io);
+  throw new InputError({}, `unknown command "${command}"; expected interpret or site (see hammerline --help)`);
 }
 
 function parse(args: string[], options: NonNullable<ParseArgsConfig['options']>) {
@@ -93,6 +116,10 @@ function interpretCommand(args: string[], io: CliIo): number {
     'allow-short-branches': { type: 'boolean' },
     quiet: { type: 'boolean', short: 'q' },
     help: { type: 'boolean', short: 'h' },
+    ...SITE_OPTIONS,
+    poisson: { type: 'string' },
+    'vp-vs': { type: 'string' },
+    'p-line': { type: 'string' },
   });
   if (values.help) {
     io.stdout(HELP);
@@ -105,7 +132,17 @@ function interpretCommand(args: string[], io: CliIo): number {
     wave,
     directThroughOrigin: Boolean(values['through-origin']),
     allowShortBranches: Boolean(values['allow-short-branches']),
+    site: siteOptions(values),
   };
+  if (values.poisson !== undefined && values['vp-vs'] !== undefined) throw new InputError({}, 'give --poisson or --vp-vs, not both');
+  if (values.poisson !== undefined) options.vsFromVp = { poisson: listOption('poisson', values.poisson as string, "a Poisson's ratio from 0 to below 0.5") };
+  if (values['vp-vs'] !== undefined) options.vsFromVp = { vpVs: listOption('vp-vs', values['vp-vs'] as string, 'a Vp/Vs ratio above 1.414') };
+  let pLine: InterpretationResult | undefined;
+  if (values['p-line'] !== undefined) {
+    const file = values['p-line'] as string;
+    const log = new WarningLog();
+    pLine = interpret(readFirstBreaks(readInput(io, file), file, log, { lengthUnit: unit, wave: 'P' }), { ...options, wave: 'P', vsFromVp: undefined }, log);
+  }
   const toMetres = (v: number) => (unit === 'ft' ? v * 0.3048 : v);
   for (const text of (values.segments as string[] | undefined) ?? []) {
     options.segments ??= {};
@@ -129,14 +166,12 @@ function interpretCommand(args: string[], io: CliIo): number {
     if (positionals.length > 1 && !values.quiet) io.stderr(`[${i + 1}/${positionals.length}] ${file}\n`);
     try {
       const log = new WarningLog();
-      let text: string;
-      try {
-        text = io.readText(file);
-      } catch (error) {
-        throw new InputError({ file }, `cannot be read (${(error as NodeJS.ErrnoException).code ?? (error as Error).message}); expected a readable first-break table`);
-      }
-      const table = readFirstBreaks(text, file, log, { lengthUnit: unit, wave });
+      const table = readFirstBreaks(readInput(io, file), file, log, { lengthUnit: unit, wave });
       const result = interpret(table, options, log);
+      if (pLine !== undefined) {
+        if (result.wave !== 'S') throw new InputError({ file }, '--p-line compares an S-wave line with a P-wave line; this line is not an S-wave line (use --wave S or a wave column)');
+        checkShearSlowerThanP(result, pLine);
+      }
       if (values.json) documents.push(interpretationJson(result));
       else texts.push(summary(result, unit));
     } catch (error) {
@@ -153,6 +188,89 @@ function interpretCommand(args: string[], io: CliIo): number {
   if (values.output) io.writeText(values.output as string, output);
   else io.stdout(output);
   return failed > 0 ? 2 : 0;
+}
+
+const SITE_OPTIONS = {
+  draws: { type: 'string' },
+  seed: { type: 'string' },
+} as const;
+
+function siteOptions(values: Record<string, unknown>): SiteOptions {
+  const options: SiteOptions = {};
+  if (values.draws !== undefined) {
+    options.draws = numberOption('draws', values.draws as string, 'a whole number of at least 2000');
+    if (!(Number.isInteger(options.draws) && options.draws >= 2000)) throw new InputError({}, `--draws ${values.draws as string}: expected a whole number of at least 2000`);
+  }
+  if (values.seed !== undefined) options.seed = numberOption('seed', values.seed as string, 'a whole number');
+  return options;
+}
+
+function listOption(option: string, text: string, expected: string): number[] {
+  return text.split(',').map((v) => numberOption(option, v, expected));
+}
+
+function readInput(io: CliIo, file: string): string {
+  try {
+    return io.readText(file);
+  } catch (error) {
+    throw new InputError({ file }, `cannot be read (${(error as NodeJS.ErrnoException).code ?? (error as Error).message}); expected a readable first-break table`);
+  }
+}
+
+function siteCommand(args: string[], io: CliIo): number {
+  const { values, positionals } = parse(args, {
+    layer: { type: 'string', multiple: true },
+    halfspace: { type: 'string' },
+    estimated: { type: 'boolean' },
+    json: { type: 'boolean' },
+    output: { type: 'string', short: 'o' },
+    units: { type: 'string' },
+    help: { type: 'boolean', short: 'h' },
+    ...SITE_OPTIONS,
+  });
+  if (values.help) {
+    io.stdout(HELP);
+    return 0;
+  }
+  if (positionals.length > 0) throw new InputError({}, `site takes a hand-entered profile (--layer, --halfspace), not files; for a line use: hammerline interpret ${positionals[0]}`);
+  const unit = lengthUnitOption(values.units as string | undefined);
+  const toSi = (v: number) => (unit === 'ft' ? v * 0.3048 : v);
+  const layers = ((values.layer as string[] | undefined) ?? []).map((text) => {
+    const parts = text.split(':');
+    if (parts.length < 2 || parts.length > 3) throw new InputError({}, `--layer ${text}: expected THICKNESS:VELOCITY or THICKNESS:VELOCITY:SE, for example 4:185`);
+    const thickness = numberOption('layer', parts[0], `a thickness in ${unit === 'ft' ? 'feet' : 'metres'}`);
+    const velocity = numberOption('layer', parts[1], `a velocity in ${unit === 'ft' ? 'ft/s' : 'm/s'}`);
+    const se = parts[2] === undefined ? 0 : numberOption('layer', parts[2], 'a standard error of the velocity');
+    if (!(thickness > 0) || !(velocity > 0) || se < 0) throw new InputError({}, `--layer ${text}: expected a thickness and a velocity above 0 and a standard error of 0 or more`);
+    return { thickness: toSi(thickness), velocity: toSi(velocity), se: toSi(se) };
+  });
+  if (layers.length === 0) throw new InputError({}, 'site needs at least one --layer THICKNESS:VELOCITY');
+  let halfspace: { velocity: number; se: number } | undefined;
+  if (values.halfspace !== undefined) {
+    const [v, se] = (values.halfspace as string).split(':');
+    halfspace = { velocity: toSi(numberOption('halfspace', v, 'a velocity')), se: se === undefined ? 0 : toSi(numberOption('halfspace', se, 'a standard error')) };
+    if (!(halfspace.velocity > 0)) throw new InputError({}, `--halfspace ${values.halfspace as string}: expected a velocity above 0`);
+  }
+  const all = halfspace ? [...layers, { thickness: 0, ...halfspace }] : layers;
+  const depths: number[] = [];
+  for (let i = 0; i < all.length - 1; i++) depths.push((depths[i - 1] ?? 0) + all[i].thickness);
+  const input: SiteInput = {
+    velocities: all.map((l) => l.velocity),
+    velocitySes: all.map((l) => l.se),
+    stations: [{ x: 0, depths, depthSes: depths.map(() => 0) }],
+    estimatedFromVp: false,
+    estimatedByUser: Boolean(values.estimated),
+    profileBase: halfspace ? depths[depths.length - 1] : layers.reduce((a, l) => a + l.thickness, 0),
+  };
+  const site = assessSite(input, siteOptions(values));
+  const output = values.json
+    ? JSON.stringify({ schema: 'hammerline/site@1', program: { name: 'hammerline', version: VERSION }, units: { length: 'm', velocity: 'm/s' },
+      profile: all.map((l, i) => ({ layer: i + 1, thickness_m: i < layers.length ? Number(l.thickness.toFixed(3)) : null, velocity_mps: Number(l.velocity.toFixed(1)), velocity_se_mps: Number(l.se.toFixed(1)) })),
+      site: siteJson(site) }, null, 2) + '\n'
+    : [`hammerline ${VERSION}: hand-entered shear-wave profile`, ...all.map((l, i) => `  layer ${i + 1}: ${i < layers.length ? `${fromMetres(l.thickness, unit).toFixed(2)} ${unit}` : 'half-space'} at ${Math.round(fromMetres(l.velocity, unit))} ${unit === 'ft' ? 'ft/s' : 'm/s'}${l.se > 0 ? ` ± ${Math.round(fromMetres(l.se, unit))}` : ''}`), '', ...siteSummary(site, unit)].join('\n') + '\n';
+  if (values.output) io.writeText(values.output as string, output);
+  else io.stdout(output);
+  return 0;
 }
 
 function lengthUnitOption(text: string | undefined): LengthUnit {

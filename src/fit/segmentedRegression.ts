@@ -348,9 +348,10 @@ function finish(
     });
     const intervals: [number, number][] = partition.cuts.map((cut, k) => {
       // The knot lies between the picks either side of the breakpoint, or one pick further where
-      // the segment on that side keeps at least three picks.
-      const left = cut - 1 - bounds[k] >= 3 ? cut - 2 : cut - 1;
-      const right = bounds[k + 2] - (cut + 1) >= 3 ? cut + 1 : cut;
+      // the segment on that side keeps at least two picks (with the hinge, two fix its line): the
+      // partition search often hands the pick nearest a corner to the wrong side.
+      const left = cut - 1 - bounds[k] >= 2 ? cut - 2 : cut - 1;
+      const right = bounds[k + 2] - (cut + 1) >= 2 ? cut + 1 : cut;
       return [x[left], x[right]];
     });
     for (let k = 1; k < intervals.length; k++) intervals[k][0] = Math.max(intervals[k][0], intervals[k - 1][1]);

@@ -1,6 +1,7 @@
 import type { BranchFit, RefractorPoint } from '../core/types.js';
 import type { InterpretationResult } from '../interpret.js';
 import { VERSION } from '../interpret.js';
+import { siteJson } from './siteJson.js';
 
 /** Version tag of the JSON document; change it when a stable field changes meaning. */
 export const INTERPRETATION_SCHEMA = 'hammerline/interpretation@1';
@@ -66,6 +67,7 @@ export function interpretationJson(result: InterpretationResult, extra: Record<s
       by_method: Object.fromEntries(Object.entries(r.byMethod).map(([m, pts]) => [m, pts.map(point)])),
     })),
     branches: result.fits.map(branch),
+    ...(result.site ? { site: siteJson(result.site) } : {}),
     qc: { fit_rms_ms: round(result.fitRmsSeconds * 1e3, 3), picks_used: result.picksUsed, picks_total: result.picksTotal },
     ...extra,
     warnings: result.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.layer ? { layer: w.layer } : {}) })),

@@ -1,19 +1,8 @@
 import { fromMetres, velocityLabel, type LengthUnit } from '../core/units.js';
 import type { InterpretationResult } from '../interpret.js';
 import { VERSION } from '../interpret.js';
-
-/** A plain-text table: columns padded to their widest cell, numbers right-aligned. */
-export function table(header: string[], rows: string[][]): string[] {
-  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? '').length)));
-  const line = (cells: string[]) => cells.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('   ').trimEnd();
-  return [line(header), line(widths.map((w) => '-'.repeat(w))), ...rows.map(line)];
-}
-
-/** Formats value ± se with the given decimals, for display. */
-export function plusMinus(value: number, se: number | undefined, digits: number): string {
-  if (se === undefined || !Number.isFinite(se)) return value.toFixed(digits);
-  return `${value.toFixed(digits)} ± ${se.toFixed(digits)}`;
-}
+import { plusMinus, table } from './format.js';
+import { siteSummary } from './siteSummary.js';
 
 /**
  * The readable summary of an interpretation for the terminal: layers with velocity ± standard
@@ -59,6 +48,8 @@ export function summary(result: InterpretationResult, unit: LengthUnit, extraSec
     for (const w of qualifying) out.push(`  ! ${w.message}`);
     out.push('');
   }
+  if (result.site) out.push(...siteSummary(result.site, unit));
+  else if (result.wave === 'P') out.push('Site class: not computed. Vs cannot be had from Vp alone: give --poisson or --vp-vs to estimate it, or interpret an S-wave line.', '');
   out.push(...extraSections);
   const general = result.warnings;
   out.push(general.length === 0 ? 'Warnings: none' : `Warnings (${general.length})`);

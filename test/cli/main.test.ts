@@ -113,3 +113,65 @@ describe('bin/hammerline', () => {
     expect(readFileSync(target, 'utf8')).toBe('good');
   });
 });
+
+describe('hammerline site and the site section of interpret', () => {
+  it('site --layer 4:185 --layer 10:430 --halfspace 880 gives Vs30 475.7 m/s and its classes', () => {
+    // Vs30 = 30 / (4/185 + 10/430 + 16/880) = 475.7 m/s, ASCE 7-16 Eq. 20.4-1 (STYLE.md example), by hand.
+    const { code, stdout } = run(['site', '--layer', '4:185', '--layer', '10:430', '--halfspace', '880', '--json']);
+    expect(code).toBe(0);
+    const doc = JSON.parse(stdout);
+    expect(doc.site.vs30_mps).toBeCloseTo(475.7, 1);
+    // ASCE over 100 ft: 30.48/(4/185 + 10/430 + 16.48/880) = 479.4 m/s = 1573 ft/s: 7-16 C, 7-22 C;
+    // EN 1998-1: 14 m of soil at 312 m/s over 880 m/s, so ground type E by profile shape.
+    expect(doc.site.classes.map((c: { class: string }) => c.class)).toEqual(['C', 'C', 'E']);
+    expect(doc.site.extrapolated_m).toBeCloseTo(16, 9);
+  });
+
+  it('site --units ft reads feet and ft/s: 20 ft @ 600, 30 ft @ 1000, 50 ft @ 2000 ft/s is 7-16 D and 7-22 CD', () => {
+    const { stdout } = run(['site', '--units', 'ft', '--layer', '20:600', '--layer', '30:1000', '--layer', '50:2000', '--json']);
+    const doc = JSON.parse(stdout);
+    const asce = doc.site.classes.filter((c: { standard: string }) => c.standard.startsWith('ASCE'));
+    // 100 / (20/600 + 30/1000 + 50/2000) = 1132.1 ft/s (SITE-CLASSES.md check value), by hand.
+    expect(asce[0].average_velocity_mps / 0.3048).toBeCloseTo(1132.1, 0);
+    expect(asce.map((c: { class: string }) => c.class)).toEqual(['D', 'CD']);
+  });
+
+  it('site of 8 m @ 200 and 12 m @ 400 m/s extends the deepest velocity and gives 7-22 CD', () => {
+    const doc = JSON.parse(run(['site', '--layer', '8:200', '--layer', '12:400', '--json']).stdout);
+    expect(doc.site.vs30_mps).toBeCloseTo(315.8, 1);
+    expect(doc.site.extrapolated_m).toBeCloseTo(10, 9);
+    expect(doc.site.classes[1].class).toBe('CD');
+  });
+
+  it('site --estimated reports the ASCE 7-22 classes of v̄s/1.3, v̄s and 1.3 v̄s and labels the classes estimated', () => {
+    // 1100 ft/s throughout: 846, 1100 and 1430 ft/s give D, CD, CD (SITE-CLASSES.md; factor 1.3 from memory).
+    const doc = JSON.parse(run(['site', '--units', 'ft', '--layer', '100:1100', '--estimated', '--json']).stdout);
+    const asce22 = doc.site.classes[1];
+    expect([asce22.estimated_range.low.class, asce22.estimated_range.central.class, asce22.estimated_range.high.class]).toEqual(['D', 'CD', 'CD']);
+    expect(asce22.estimated).toBe(true);
+  });
+
+  it('site rejects a malformed layer with a message saying what was expected', () => {
+    const { code, stderr } = run(['site', '--layer', '4-185']);
+    expect(code).toBe(2);
+    expect(stderr).toMatch(/--layer 4-185: expected THICKNESS:VELOCITY/);
+  });
+
+  it('interpret of the SH example prints Vs30 with its range and every class with its probability and cautions', () => {
+    const { code, stdout } = run(['interpret', 'survey-examples/alluvial-terrace/sh-first-breaks.csv']);
+    expect(code).toBe(0);
+    expect(stdout).toMatch(/Site class, from measured shear-wave velocities/);
+    expect(stdout).toMatch(/Vs30 \d+ m\/s \(5th-95th percentile \d+ to \d+ m\/s/);
+    expect(stdout).toMatch(/ASCE 7-16 +Table 20\.3-1 +\d+ +C +\d+ %/);
+    expect(stdout).toMatch(/Class F/);
+  });
+
+  it('interpret --poisson labels a P-line site class estimated; --p-line rejects a P line slower than the S line', () => {
+    const p = run(['interpret', 'survey-examples/pump-station/first-breaks.csv', '--poisson', '0.3', '--json']);
+    const doc = JSON.parse(p.stdout);
+    expect(doc.site.estimated_from_vp).toBe(true);
+    const swapped = run(['interpret', 'survey-examples/pump-station/first-breaks.csv', '--wave', 'S', '--p-line', 'survey-examples/alluvial-terrace/sh-first-breaks.csv']);
+    expect(swapped.code).toBe(2);
+    expect(swapped.stderr).toMatch(/not slower than Vp/);
+  });
+});

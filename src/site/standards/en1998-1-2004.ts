@@ -1,0 +1,54 @@
+import { VS30_DEPTH_M } from '../vs30.js';
+import type { SiteClassStandard } from './types.js';
+
+/**
+ * EN 1998-1:2004 Table 3.1 ground types A to D by vs,30, in m/s. The table prints ranges as
+ * "360 - 800"; we class a value on a bound with the softer ground type (the conservative reading,
+ * and the same rule as the ASCE tables). Ground type E is judged from the profile shape
+ * (groundTypeE below), not from vs,30. Source: ../shared/SITE-CLASSES.md [public].
+ */
+export const EN_1998_1_2004: SiteClassStandard = {
+  standard: 'EN 1998-1:2004',
+  averagingDepth: VS30_DEPTH_M,
+  table: 'Table 3.1',
+  bands: [
+    { class: 'D', upper: 180, description: 'loose to medium cohesionless soil, or soft to firm cohesive soil' },
+    { class: 'C', lower: 180, upper: 360, description: 'deep dense or medium dense sand or gravel, or stiff clay' },
+    { class: 'B', lower: 360, upper: 800, description: 'very dense sand or gravel, or very stiff clay, tens of metres thick' },
+    { class: 'A', lower: 800, description: 'rock, with at most 5 m of weaker material at the surface' },
+  ],
+  boundaryRule: 'our convention: above the lower bound, up to and including the upper bound, so a value on a printed bound (180, 360, 800 m/s) goes to the softer ground type',
+  provenance: 'bounds as published in Table 3.1 (public)',
+  notFromVelocity: [
+    'Ground types S1 (at least 10 m of soft clay or silt with PI > 40 and high water content) and S2 (liquefiable soils, sensitive clays, any soil not in A to E or S1) need special studies; refraction cannot detect them.',
+  ],
+};
+
+/** Ground type E: 5 to 20 m of soil with vs of type C or D over material with vs > 800 m/s. */
+export interface GroundTypeE {
+  /** Thickness of the material above the first layer faster than 800 m/s, in metres. */
+  soilThickness: number;
+  /** Its travel-time-averaged shear-wave velocity, in m/s. */
+  soilVelocity: number;
+  /** Velocity of the material below, in m/s. */
+  baseVelocity: number;
+}
+
+/**
+ * Whether a profile has the shape of EN 1998-1:2004 ground type E: a surface layer (or layers)
+ * of about 5 to 20 m with a travel-time-average vs of type C or D (≤ 360 m/s) over material
+ * with vs > 800 m/s. Whether the surface layer is alluvium is a geological judgement the user
+ * must make.
+ *
+ * @param layers - thickness in metres and velocity in m/s, top down, the last one the base
+ * @returns the match, or undefined when the profile does not have that shape
+ */
+export function groundTypeE(layers: { thickness: number; velocity: number }[]): GroundTypeE | undefined {
+  const baseIndex = layers.findIndex((l) => l.velocity > 800);
+  if (baseIndex <= 0) return undefined;
+  const soil = layers.slice(0, baseIndex);
+  const soilThickness = soil.reduce((a, l) => a + l.thickness, 0);
+  const soilVelocity = soilThickness / soil.reduce((a, l) => a + l.thickness / l.velocity, 0);
+  if (soilThickness < 5 || soilThickness > 20 || soilVelocity > 360) return undefined;
+  return { soilThickness, soilVelocity, baseVelocity: layers[baseIndex].velocity };
+}

@@ -1,0 +1,43 @@
+/** One class of a site-class table: velocities above `lower` up to and including `upper`, in m/s. */
+export interface ClassBand {
+  class: string;
+  /** Exclusive lower bound in m/s (undefined = no lower bound). */
+  lower?: number;
+  /** Inclusive upper bound in m/s (undefined = no upper bound). */
+  upper?: number;
+  description: string;
+}
+
+/** A site-class table of one standard and edition. */
+export interface SiteClassStandard {
+  /** Name as the JSON contract spells it: "ASCE 7-16", "ASCE 7-22", "EN 1998-1:2004". */
+  standard: string;
+  /** Depth over which the standard averages shear-wave velocity, in metres. */
+  averagingDepth: number;
+  /** Table the classes come from, for the report. */
+  table: string;
+  /** Bands from the softest to the hardest. */
+  bands: ClassBand[];
+  /** How a value exactly on a bound is classed, in words, for the report. */
+  boundaryRule: string;
+  /** How sure we are of the bounds (from SITE-CLASSES.md), shown with every class. */
+  provenance: string;
+  /** Classes a refraction survey cannot assign (need borings or special studies), with why. */
+  notFromVelocity: string[];
+  /** Rule for estimated (not measured) velocities, when the edition has one. */
+  estimatedFactor?: number;
+}
+
+/** Relative tolerance within which a value counts as on a bound (guards unit conversions). */
+const ON_BOUND = 1e-9;
+
+/**
+ * The band a time-averaged velocity falls in: above the lower bound, up to and including the
+ * upper bound, so a value on a bound goes to the softer class.
+ */
+export function classify(standard: SiteClassStandard, vs: number): ClassBand {
+  for (const band of standard.bands) {
+    if (band.upper === undefined || vs <= band.upper * (1 + ON_BOUND)) return band;
+  }
+  return standard.bands[standard.bands.length - 1];
+}
