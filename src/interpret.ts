@@ -1,15 +1,22 @@
 import { checkLayerCautions, depthCautions, type Caution } from './core/cautions.js';
 import { median } from './core/stats.js';
-import type { BranchFit, FirstBreakTable, Interpretation, Layer, Refractor, Wave } from './core/types.js';
+import type { BranchFit, FirstBreakTable, Interpretation, Layer, Wave } from './core/types.js';
 import { WarningLog } from './core/warnings.js';
 import { interceptTimeDepths } from './depth/interceptTime.js';
+import { DISAGREE_FRACTION, DISAGREE_METRES, refractorProfiles, type RefractorMethods } from './depth/profiles.js';
+import { reciprocalChecks, reciprocalTolerance, type ReciprocalCheck } from './depth/reciprocal.js';
 import { splitBranches } from './fit/branches.js';
 import { branchName, fitBranches, type BranchChoices } from './fit/fitBranches.js';
+import { staticsCorrectedFits } from './fit/statics.js';
+import { MIN_VELOCITY_CONTRAST } from './fit/segmentedRegression.js';
 import { assignLayers, layerVelocities } from './fit/layers.js';
 import { siteInputFromInterpretation, type VsFromVpOptions } from './site/fromInterpretation.js';
 import { assessSite, type SiteAssessment, type SiteOptions } from './site/siteAssessment.js';
 
 export const VERSION = '0.2.0';
+
+/** Warnings that show a fit took bends of the branches for layers (see staticsCorrectedFits). */
+const IRREGULAR = new Set(['apparent-velocity-decrease', 'layer-consistency', 'unreversed-layer', 'velocity-inversion', 'layer-merged']);
 
 /** Options of one interpretation. */
 export interface InterpretOptions extends BranchChoices {
@@ -24,7 +31,10 @@ export interface InterpretOptions extends BranchChoices {
 }
 
 export interface InterpretationResult extends Interpretation {
+  refractors: RefractorMethods[];
   cautions: Caution[];
+  /** Reciprocal-time check of every pair of sources whose branches reach each other. */
+  reciprocal: ReciprocalCheck[];
   /** Vs30 and site classes: for S lines, and for P lines given a Poisson's ratio or Vp/Vs. */
   site?: SiteAssessment;
 }
@@ -45,24 +55,86 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   history.push({ step: 'splitBranches', parameters: { branches: branches.length, allowShortBranches: options.allowShortBranches ?? false } });
 
   const spacing = receiverSpacing(table);
-  const readerWarnings = log.items.length;
-  let fits = fitBranches(branches, options, table.file, log);
-  const capped = loneDeepestBranches(fits, spacing);
-  if (capped.length > 0) {
-    // Fit again from scratch so that no warning of the discarded fits survives.
-    log.items.length = readerWarnings;
-    const segments = { ...(options.segments ?? {}) };
-    for (const { fit } of capped) segments[branchName(fit.branch)] = fit.segments.length - 1;
-    fits = fitBranches(branches, { ...options, segments }, table.file, log);
-    for (const { fit, seenBeyond } of capped) {
-      log.add('layer-dropped',
-        `${branchName(fit.branch)} branch: its last segment (from ${fit.segments[fit.segments.length - 1].firstOffset.toFixed(1)} m offset) would be a layer no other branch sees, although ${seenBeyond} reach${seenBeyond.includes(',') ? '' : 'es'} farther on the same side; fitted with one segment fewer. Fix its segments if the layer is real`,
-        { where: { file: table.file, source: fit.branch.sourceId } });
+  const attempt = (useStatics: boolean) => {
+    const attemptLog = new WarningLog();
+    const fitWith = (choices: InterpretOptions) => (useStatics
+      ? staticsCorrectedFits(branches, choices, table.file, spacing, attemptLog)
+      : fitBranches(branches, choices, table.file, attemptLog));
+    const caps: Record<string, number> = {};
+    let fits = fitWith(options);
+    if (fits === undefined) return undefined;
+    const capped = loneDeepestBranches(fits, spacing);
+    if (capped.length > 0) {
+      // Fit again from scratch so that no warning of the discarded fits survives.
+      attemptLog.items.length = 0;
+      for (const { fit } of capped) caps[branchName(fit.branch)] = fit.segments.length - 1;
+      fits = fitWith({ ...options, segmentCaps: caps })!;
+      for (const { fit, seenBeyond } of capped) {
+        attemptLog.add('layer-dropped',
+          `${branchName(fit.branch)} branch: its last segment (from ${fit.segments[fit.segments.length - 1].firstOffset.toFixed(1)} m offset) would be a layer no other branch sees, although ${seenBeyond} reach${seenBeyond.includes(',') ? '' : 'es'} farther on the same side; fitted with at most one segment fewer. Fix its segments if the layer is real`,
+          { where: { file: table.file, source: fit.branch.sourceId } });
+      }
     }
+    // A layer less than MIN_VELOCITY_CONTRAST faster than the one above is one layer split in two
+    // (a bend of its branches), and one slower than the layer above cannot send back a head wave at
+    // all: either way the branches that show it are fitted with one segment fewer.
+    for (let round = 0; round < 3; round++) {
+      const scratch = new WarningLog();
+      const trial = layerVelocities(fits, assignLayers(fits, spacing, scratch), scratch);
+      const split = trial.findIndex((l, i) => i > 0 && l.velocity < MIN_VELOCITY_CONTRAST * trial[i - 1].velocity);
+      if (split < 0) break;
+      const layer = trial[split].index;
+      const showing = fits.filter((f) => f.chosenBy !== 'user' && f.segments.length > 1 && f.segments.some((sg) => sg.layer === layer));
+      if (showing.length === 0) break;
+      const trialCaps = { ...caps };
+      for (const f of showing) trialCaps[branchName(f.branch)] = f.segments.length - 1;
+      const trialLog = new WarningLog();
+      const merged = useStatics ? staticsCorrectedFits(branches, { ...options, segmentCaps: trialCaps }, table.file, spacing, trialLog) : fitBranches(branches, { ...options, segmentCaps: trialCaps }, table.file, trialLog);
+      if (merged === undefined) break;
+      // Where one segment fewer fits the branch much worse (residual deviation more than doubled),
+      // the bend is in the data, not in the fit: keep the segments, and the warnings they raise.
+      const worse = showing.some((f) => merged.find((m) => m.branch === f.branch)!.residualSd > 2 * f.residualSd);
+      if (worse) break;
+      Object.assign(caps, trialCaps);
+      const kept = attemptLog.items.filter((w) => w.code === 'layer-dropped' || w.code === 'layer-merged' || (w.code === 'velocity-inversion' && w.message.includes('one segment fewer')));
+      attemptLog.items.length = 0;
+      attemptLog.items.push(...kept, ...trialLog.items);
+      fits = merged;
+      const names = showing.map((f) => branchName(f.branch)).join(', ');
+      if (trial[split].velocity <= trial[split - 1].velocity) {
+        attemptLog.add('velocity-inversion',
+          `layer ${layer} (${Math.round(trial[split].velocity)} m/s) is not faster than layer ${layer - 1} (${Math.round(trial[split - 1].velocity)} m/s): a layer slower than the one above sends back no head wave, so these segments are bends of the branches (a lateral change, an irregular refractor or mispicks), not a layer; ${names} fitted with at most one segment fewer. Check the picks there`,
+          { layer });
+      } else {
+        attemptLog.add('layer-merged',
+          `layer ${layer} (${Math.round(trial[split].velocity)} m/s) is less than ${Math.round((MIN_VELOCITY_CONTRAST - 1) * 100)} % faster than layer ${layer - 1} (${Math.round(trial[split - 1].velocity)} m/s), so it is taken for the same refractor: ${names} fitted with at most one segment fewer`);
+      }
+    }
+    // Judge the attempt by the inconsistencies its layers would raise.
+    const judge = new WarningLog();
+    const count = assignLayers(fits, spacing, judge);
+    checkLayerCautions(layerVelocities(fits, count, judge), wave, judge);
+    const flags = [...attemptLog.items, ...judge.items].filter((w) => IRREGULAR.has(w.code)).length;
+    return { fits, items: attemptLog.items, flags };
+  };
+  const plain = attempt(false)!;
+  let chosen = plain;
+  let statics = false;
+  if (plain.flags > 0) {
+    const corrected = attempt(true);
+    if (corrected !== undefined && corrected.flags < plain.flags) {
+      chosen = corrected;
+      statics = true;
+    }
+  }
+  const fits = chosen.fits;
+  log.items.push(...chosen.items);
+  if (statics) {
+    log.add('statics-applied', `the branches bend in ways that straight segments took for extra layers (${plain.flags} inconsistencies); they were segmented again after removing each receiver's delay time (refraction statics), which left ${chosen.flags}. The refractor is probably irregular: prefer the GRM and delay-time depths to the intercept-time ones`);
   }
   history.push({
     step: 'segmentedRegression',
-    parameters: { criterion: 'BIC', maxSegments: options.maxSegments ?? 4, directThroughOrigin: options.directThroughOrigin ?? false, fixedSegments: options.segments ?? {}, fixedBreakpoints_m: options.breakpoints ?? {}, outlierRule: 'modified z-score > 3.5' },
+    parameters: { statics, criterion: 'BIC', maxSegments: options.maxSegments ?? 4, directThroughOrigin: options.directThroughOrigin ?? false, fixedSegments: options.segments ?? {}, fixedBreakpoints_m: options.breakpoints ?? {}, outlierRule: 'modified z-score > 3.5' },
   });
 
   const layerCount = assignLayers(fits, spacing, log);
@@ -72,13 +144,19 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
 
   const usable = usableLayers(layers);
   const intercept = interceptTimeDepths(fits, usable, log);
-  const refractors: Refractor[] = intercept.map((points, i) => ({
-    index: i + 1,
-    method: 'intercept-time',
-    points,
-    byMethod: { 'intercept-time': points },
-  }));
-  history.push({ step: 'depths', parameters: { methods: ['intercept-time'], refractors: refractors.length } });
+  const receivers = receiverGround(table);
+  checkGeometry(table, receivers, spacing, fits, log);
+  const pickNoise = lineFitRms(fits);
+  const reciprocal = reciprocalChecks(fits, pickNoise, log);
+  const refractors: RefractorMethods[] = refractorProfiles({ fits, layers: usable, interceptPoints: intercept, receivers, spacing, pickNoise }, log);
+  for (const r of refractors) {
+    if (r.hiddenLayer === undefined) continue;
+    const h = r.hiddenLayer;
+    log.add('hidden-layer-limit',
+      `refractor ${r.index}: a layer of about ${Math.round(h.hiddenVelocity)} m/s up to ${h.maxThickness.toFixed(1)} m thick could lie above it without ever arriving first (Soske 1959); the refractor would then be up to ${h.depthUnderestimate.toFixed(1)} m deeper than computed`,
+      { layer: r.index + 1 });
+  }
+  history.push({ step: 'depths', parameters: { methods: ['intercept-time', 'plus-minus', 'GRM', 'delay-time'], recommended: refractors.map((r) => r.method), reciprocalTolerance_ms: reciprocalTolerance(pickNoise) * 1e3, disagreement: `max(${DISAGREE_METRES} m, ${DISAGREE_FRACTION * 100} %)` } });
 
   const receiverXs = [...new Set(table.picks.map((p) => p.receiverX))].sort((a, b) => a - b);
   const siteInput = siteInputFromInterpretation({ file: table.file, wave, layers, refractors }, receiverXs, options.vsFromVp);
@@ -91,8 +169,6 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   }
 
   const used = fits.reduce((n, f) => n + f.branch.picks.length - f.outlierRows.length, 0);
-  const sumSquares = fits.reduce((a, f) => a + f.residualSd ** 2 * Math.max(1, f.branch.picks.length - f.outlierRows.length - 2 * f.segments.length), 0);
-  const dof = fits.reduce((a, f) => a + Math.max(1, f.branch.picks.length - f.outlierRows.length - 2 * f.segments.length), 0);
   return {
     file: table.file,
     wave,
@@ -102,7 +178,8 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     warnings: log.items,
     cautions: depthCautions(wave),
     history,
-    fitRmsSeconds: Math.sqrt(sumSquares / dof),
+    fitRmsSeconds: pickNoise,
+    reciprocal,
     picksUsed: used,
     picksTotal: table.picks.length,
     site,
@@ -143,4 +220,47 @@ function loneDeepestBranches(fits: BranchFit[], spacing: number): { fit: BranchF
     && f.branch.offsets[f.branch.offsets.length - 1] >= last.firstOffset + 2 * spacing);
   if (longer.length === 0) return [];
   return [{ fit, seenBeyond: longer.map((f) => branchName(f.branch)).join(', ') }];
+}
+
+/** Residual standard deviation of all line fits together, in seconds: the pick noise. */
+function lineFitRms(fits: BranchFit[]): number {
+  let sumSquares = 0;
+  let dof = 0;
+  for (const f of fits) {
+    const free = Math.max(1, f.branch.picks.length - f.outlierRows.length - 2 * f.segments.length);
+    sumSquares += f.residualSd ** 2 * free;
+    dof += free;
+  }
+  return Math.sqrt(sumSquares / dof);
+}
+
+/** Each receiver position with its ground elevation, sorted along the line. */
+function receiverGround(table: FirstBreakTable): { x: number; elev: number }[] {
+  const byX = new Map<number, number>();
+  for (const p of table.picks) byX.set(p.receiverX, p.receiverElev);
+  return [...byX.entries()].sort((a, b) => a[0] - b[0]).map(([x, elev]) => ({ x, elev }));
+}
+
+/** Warnings about the layout: gaps in the geophones, and sources inside the spread seen on one side only. */
+function checkGeometry(table: FirstBreakTable, receivers: { x: number }[], spacing: number, fits: BranchFit[], log: WarningLog): void {
+  for (let i = 1; i < receivers.length; i++) {
+    const gap = receivers[i].x - receivers[i - 1].x;
+    if (gap > 1.5 * spacing) {
+      log.add('receiver-gap', `no geophone between x = ${receivers[i - 1].x} and ${receivers[i].x} m (a gap of ${gap.toFixed(2)} m, ${(gap / spacing).toFixed(1)} spacings): no depth is computed inside the gap, and the methods that pair neighbouring geophones lose coverage beside it`, { where: { file: table.file } });
+    }
+  }
+  const first = receivers[0].x;
+  const last = receivers[receivers.length - 1].x;
+  const sides = new Map<string, Set<string>>();
+  for (const f of fits) {
+    if (!sides.has(f.branch.sourceId)) sides.set(f.branch.sourceId, new Set());
+    sides.get(f.branch.sourceId)!.add(f.branch.side);
+  }
+  for (const [id, set] of sides) {
+    const x = fits.find((f) => f.branch.sourceId === id)!.branch.sourceX;
+    if (set.size === 1 && x > first + spacing && x < last - spacing) {
+      const side = [...set][0];
+      log.add('one-sided-source', `source ${id} at x = ${x} m lies inside the spread but has picks on its ${side === 'forward' ? '+x' : '-x'} side only; if the other side was recorded, its picks are missing`, { where: { file: table.file, source: id } });
+    }
+  }
 }

@@ -50,7 +50,7 @@ describe('interpret on lines from an independent forward model with 0.3 ms pick 
         });
         expect(result.refractors).toHaveLength(c.depth.length);
         c.depth.forEach((depthAt, k) => {
-          const points = result.refractors[k].points;
+          const points = result.refractors[k].byMethod['intercept-time'];
           expect(points.length).toBeGreaterThanOrEqual(3);
           for (const p of points) expect(Math.abs(p.depth - depthAt(p.x))).toBeLessThan(0.3);
         });

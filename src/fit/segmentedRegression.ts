@@ -13,6 +13,12 @@ export interface SegmentedOptions {
   breakpoints?: number[];
   /** Force the first segment through the origin (the direct wave; common practice). */
   firstThroughOrigin?: boolean;
+  /** Never keep a slope that increases along x, however strongly the data prefer it; default false. */
+  forbidSlopeIncrease?: boolean;
+  /** Treat these points as the outliers (left out, no new detection); for refits of a fixed partition. */
+  presetOutliers?: number[];
+  /** Who chose the breakpoints when they are given: the user (default) or an earlier fit. */
+  breakpointsFrom?: 'user' | 'criterion';
   /** Fewest points in one segment; default 3 (two points leave no residual for a standard error). */
   minPoints?: number;
   /**
@@ -107,7 +113,12 @@ export function segmentedRegression(x: number[], y: number[], options: Segmented
   const maxSegments = options.maxSegments ?? 4;
   if (!(maxSegments >= 1 && maxSegments <= 4)) throw new RangeError(`maxSegments must be 1 to 4, got ${maxSegments}`);
   const all = x.map((_, i) => i);
-  let fit = fitSubset(x, y, all, options, maxSegments, minPoints);
+  if (options.presetOutliers !== undefined) {
+    const preset = options.presetOutliers;
+    const refit = fitSubset(x, y, all.filter((i) => !preset.includes(i)), options, maxSegments, minPoints);
+    return refit && { ...refit, outliers: [...preset] };
+  }
+  const fit = fitSubset(x, y, all, options, maxSegments, minPoints);
   if (fit === undefined) return undefined;
   const outliers = flagOutliers(x, y, all, fit.segments);
   if (outliers.length > 0 && x.length - outliers.length >= minPoints) {
@@ -176,7 +187,7 @@ function fitSubset(
       }
     }
     const partition = { cuts, rss: partitionRss(sums, cuts, n, origin) };
-    return finish(x, y, keep, partition, origin, [bicOf(partition.rss, cuts.length + 1)], false, 'user', bps);
+    return finish(x, y, keep, partition, origin, [bicOf(partition.rss, cuts.length + 1)], false, options.breakpointsFrom ?? 'user', bps, options.breakpointsFrom === 'criterion');
   }
   const fixed = options.segments;
   if (fixed !== undefined && !(Number.isInteger(fixed) && fixed >= 1 && fixed <= 4)) {
@@ -192,7 +203,7 @@ function fitSubset(
     const slopes = segmentSlopes(sums, free.cuts, n, origin);
     if (!contrasted(slopes, false)) {
       const constrained = bestDecreasingPartition(sums, n, m, minPoints, origin);
-      const insists = contrasted(slopes, true)
+      const insists = !options.forbidSlopeIncrease && contrasted(slopes, true)
         && (constrained === undefined || bicOf(constrained.rss, m) - bicOf(free.rss, m) > INVERSION_EVIDENCE_BIC);
       choice = insists ? { partition: free, inverted: true } : constrained && { partition: constrained, inverted: false };
     }
@@ -205,16 +216,18 @@ function fitSubset(
       ? `${fixed} segments need at least ${fixed * minPoints} picks; the branch has ${n}`
       : `no split into ${fixed} segments gives apparent velocities each at least ${Math.round((MIN_VELOCITY_CONTRAST - 1) * 100)} % faster than the one before; fix the breakpoints instead`);
   }
-  let best = fixed === undefined ? -1 : fixed - 1;
-  if (fixed === undefined) {
-    for (let m = 0; m < chosen.length; m++) {
-      if (chosen[m] === undefined) continue;
-      if (m > 0 && !significantBreaks(x, y, chosen[m]!.partition, origin)) continue;
-      if (best < 0 || bic[m]! < bic[best]!) best = m;
-    }
+  if (fixed !== undefined) return finish(x, y, keep, chosen[fixed - 1]!.partition, origin, bic, chosen[fixed - 1]!.inverted, 'user');
+  const order = chosen
+    .map((c, m) => ({ c, m }))
+    .filter(({ c, m }) => c !== undefined && (m === 0 || significantBreaks(x, y, c.partition, origin)))
+    .sort((a, b) => bic[a.m]! - bic[b.m]!);
+  // The joint (hinge) refit can turn a short segment's slope to zero or less on a bent branch:
+  // such a count does not describe first arrivals, so the next best count is taken.
+  for (const { c, m } of order) {
+    const result = finish(x, y, keep, c!.partition, origin, bic, c!.inverted, 'criterion');
+    if (m === 0 || result.segments.every((segment) => segment.slope > 0)) return result;
   }
-  if (best < 0) return undefined;
-  return finish(x, y, keep, chosen[best]!.partition, origin, bic, chosen[best]!.inverted, fixed === undefined ? 'criterion' : 'user');
+  return undefined;
 }
 
 function partitionRss(s: Sums, cuts: number[], n: number, origin: boolean): number {
@@ -331,6 +344,7 @@ function bestDecreasingPartition(s: Sums, n: number, m: number, minPoints: numbe
 function finish(
   x: number[], y: number[], keep: number[], partition: Partition, origin: boolean,
   bic: (number | undefined)[], slopeIncreaseKept: boolean, chosenBy: 'criterion' | 'user', userKnots?: number[],
+  knotsEstimated = userKnots === undefined,
 ): Omit<SegmentedFit, 'outliers'> {
   const n = x.length;
   const bounds = [0, ...partition.cuts, n];
@@ -362,10 +376,13 @@ function finish(
     });
     knots = optimiseKnots(x, y, start, intervals, origin);
   }
-  const hinge = hingeFit(x, y, knots, origin, userKnots === undefined);
+  const hinge = hingeFit(x, y, knots, origin, knotsEstimated);
   // Picks before a knot belong to the segment ending there.
   const ends = [...knots.map((knot) => x.findIndex((xi) => xi >= knot)).map((i) => (i < 0 ? n : i)), n];
-  const segments: LineSegment[] = hinge.lines.map((line, k) => {
+  // A short segment on a bent branch can come out of the joint fit with a slope of zero or less;
+  // its own least-squares line (the discontinuous fit) is then the better description.
+  const lines = hinge.lines.some((l) => !(l.slope > 0)) ? separateLines(x, y, ends, origin) : hinge.lines;
+  const segments: LineSegment[] = lines.map((line, k) => {
     const first = k === 0 ? 0 : ends[k - 1];
     const last = ends[k] - 1;
     return {
@@ -380,6 +397,35 @@ function finish(
     };
   });
   return { segments, residualSd: hinge.sd, bic, slopeIncreaseKept, chosenBy };
+}
+
+/** Each segment's own least-squares line, with standard errors from the pooled residual deviation. */
+function separateLines(x: number[], y: number[], ends: number[], origin: boolean) {
+  const bounds = [0, ...ends];
+  const sums = prefixSums(x, y);
+  let rss = 0;
+  const raw = bounds.slice(1).map((end, k) => {
+    const line = rangeLine(sums, bounds[k], end, origin && k === 0);
+    rss += line.rss;
+    return { start: bounds[k], end, slope: line.slope };
+  });
+  const dof = Math.max(1, x.length - 2 * raw.length);
+  const sd = Math.sqrt(rss / dof);
+  return raw.map((r, k) => {
+    const xs = x.slice(r.start, r.end);
+    const ys = y.slice(r.start, r.end);
+    const count = xs.length;
+    const mean = xs.reduce((a, b) => a + b, 0) / count;
+    const sxx = xs.reduce((a, b) => a + (b - mean) ** 2, 0);
+    const throughOrigin = origin && k === 0;
+    const intercept = throughOrigin ? 0 : ys.reduce((a, b) => a + b, 0) / count - r.slope * mean;
+    return {
+      slope: r.slope,
+      slopeSe: throughOrigin ? sd / Math.sqrt(xs.reduce((a, b) => a + b * b, 0)) : sxx > 0 ? sd / Math.sqrt(sxx) : Infinity,
+      intercept,
+      interceptSe: throughOrigin ? 0 : sxx > 0 ? sd * Math.sqrt(1 / count + (mean * mean) / sxx) : Infinity,
+    };
+  });
 }
 
 /** Points whose residual from their segment's line has a modified z-score above 3.5. */

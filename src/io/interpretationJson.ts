@@ -9,8 +9,8 @@ export const INTERPRETATION_SCHEMA = 'hammerline/interpretation@1';
 const round = (value: number | undefined, digits: number) =>
   value === undefined || !Number.isFinite(value) ? null : Number(value.toFixed(digits));
 
-function point(p: RefractorPoint) {
-  return { x_m: round(p.x, 3), depth_m: round(p.depth, 3), elev_m: round(p.elev, 3), depth_se_m: round(p.depthSe, 3), ...(p.sourceId ? { source_id: p.sourceId } : {}) };
+function point(p: RefractorPoint, method?: string) {
+  return { x_m: round(p.x, 3), depth_m: round(p.depth, 3), elev_m: round(p.elev, 3), depth_se_m: round(p.depthSe, 3), ...(p.sourceId ? { source_id: p.sourceId } : {}), ...(method ? { method } : {}) };
 }
 
 function branch(fit: BranchFit) {
@@ -62,13 +62,32 @@ export function interpretationJson(result: InterpretationResult, extra: Record<s
     })),
     refractors: result.refractors.map((r) => ({
       index: r.index,
+      velocity_mps: round(result.layers[r.index]?.velocity, 1),
       method: r.method,
-      points: r.points.map(point),
-      by_method: Object.fromEntries(Object.entries(r.byMethod).map(([m, pts]) => [m, pts.map(point)])),
+      points: r.points.map((p, i) => point(p, r.pointMethods[i])),
+      by_method: Object.fromEntries(Object.entries(r.byMethod).map(([m, pts]) => [m, pts.map((p) => point(p))])),
+      method_info: r.methodInfo,
+      ...(r.hiddenLayer ? {
+        hidden_layer: {
+          assumed_velocity_mps: round(r.hiddenLayer.hiddenVelocity, 1),
+          max_thickness_m: round(r.hiddenLayer.maxThickness, 2),
+          depth_underestimate_m: round(r.hiddenLayer.depthUnderestimate, 2),
+          source: 'Soske 1959',
+        },
+      } : {}),
     })),
     branches: result.fits.map(branch),
     ...(result.site ? { site: siteJson(result.site) } : {}),
-    qc: { fit_rms_ms: round(result.fitRmsSeconds * 1e3, 3), picks_used: result.picksUsed, picks_total: result.picksTotal },
+    qc: {
+      fit_rms_ms: round(result.fitRmsSeconds * 1e3, 3),
+      picks_used: result.picksUsed,
+      picks_total: result.picksTotal,
+      reciprocal: result.reciprocal.map((c) => ({
+        source_a: c.sourceA, source_b: c.sourceB,
+        time_ab_ms: round(c.timeAB * 1e3, 3), time_ba_ms: round(c.timeBA * 1e3, 3),
+        difference_ms: round(c.difference * 1e3, 3), tolerance_ms: round(c.tolerance * 1e3, 3), ok: c.ok,
+      })),
+    },
     ...extra,
     warnings: result.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.layer ? { layer: w.layer } : {}) })),
     cautions: result.cautions,

@@ -35,17 +35,35 @@ export function summary(result: InterpretationResult, unit: LengthUnit, extraSec
   }
   for (const r of result.refractors) {
     const top = result.layers[r.index];
-    out.push(`Refractor ${r.index} (top of layer ${r.index + 1}, ${Math.round(vel(top.velocity))} ${vLabel}): depth under each source, ${r.method} method`);
+    out.push(`Refractor ${r.index} (top of layer ${r.index + 1}, ${Math.round(vel(top.velocity))} ${vLabel}): depth below ground by geophone; recommended: ${r.method}`);
     if (r.points.length === 0) {
-      out.push('  no source gives an intercept time for this refractor');
+      out.push('  no method gives a depth for this refractor');
     } else {
+      const others = ['plus-minus', 'GRM', 'delay-time'].filter((m) => (r.byMethod[m] ?? []).length > 0);
+      const at = (m: string, x: number) => r.byMethod[m]?.find((p) => p.x === x);
       out.push(...table(
-        ['source', `x (${unit})`, `depth (${unit})`, `elevation (${unit})`],
-        r.points.map((p) => [p.sourceId ?? '', len(p.x).toFixed(2), plusMinus(len(p.depth), len(p.depthSe), 2), len(p.elev).toFixed(2)]),
+        ['x (' + unit + ')', `depth (${unit})`, `elevation (${unit})`, 'method', ...others.map((m) => `${m} (${unit})`)],
+        r.points.map((p, i) => [
+          len(p.x).toFixed(2), plusMinus(len(p.depth), len(p.depthSe), 2), len(p.elev).toFixed(2), r.pointMethods[i],
+          ...others.map((m) => { const q = at(m, p.x); return q ? len(q.depth).toFixed(2) : '-'; }),
+        ]),
       ).map((s) => `  ${s}`));
     }
+    const intercept = r.byMethod['intercept-time'] ?? [];
+    if (intercept.length > 0) {
+      out.push(`  Under the sources (intercept-time): ${intercept.map((p) => `${p.sourceId} ${plusMinus(len(p.depth), len(p.depthSe), 2)} ${unit}`).join('; ')}`);
+    }
+    const grmInfo = r.methodInfo['GRM'];
+    if (grmInfo) out.push(`  GRM optimum XY ${fromMetres(Number(grmInfo.optimum_xy_m), unit).toFixed(2)} ${unit} (from the ${String(grmInfo.optimum_xy_basis)}), sources ${String(grmInfo.source_forward)} and ${String(grmInfo.source_reverse)}`);
+    const velocities = Object.entries(r.methodInfo).filter(([, info]) => info.velocity_mps !== undefined).map(([m, info]) => `${m} ${Math.round(vel(Number(info.velocity_mps)))} ± ${Math.round(vel(Number(info.velocity_se_mps)))}`);
+    if (velocities.length > 0) out.push(`  Refractor velocity by method (${vLabel}): ${velocities.join('; ')}`);
     const qualifying = result.warnings.filter((w) => w.layer === r.index + 1);
     for (const w of qualifying) out.push(`  ! ${w.message}`);
+    out.push('');
+  }
+  if (result.reciprocal.length > 0) {
+    const bad = result.reciprocal.filter((c) => !c.ok);
+    out.push(`Reciprocal times: ${result.reciprocal.length} pair${result.reciprocal.length > 1 ? 's' : ''} checked, ${bad.length} beyond the ${(result.reciprocal[0].tolerance * 1e3).toFixed(2)} ms tolerance${bad.length > 0 ? `: ${bad.map((c) => `${c.sourceA}-${c.sourceB} ${(c.difference * 1e3).toFixed(2)} ms`).join(', ')}` : ''}; largest difference ${(Math.max(...result.reciprocal.map((c) => c.difference)) * 1e3).toFixed(2)} ms`);
     out.push('');
   }
   if (result.site) out.push(...siteSummary(result.site, unit));

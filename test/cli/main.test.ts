@@ -31,7 +31,9 @@ describe('hammerline interpret', () => {
     expect(code).toBe(0);
     expect(stdout).toMatch(/velocity \(m\/s\)/);
     expect(stdout).toMatch(/\d+ ± \d+/);
-    expect(stdout).toMatch(/Refractor 1 .* depth under each source, intercept-time method/);
+    expect(stdout).toMatch(/Refractor 1 .* depth below ground by geophone; recommended: /);
+    expect(stdout).toMatch(/Under the sources \(intercept-time\): S1 \d+\.\d+ ± \d+\.\d+ m/);
+    expect(stdout).toMatch(/Reciprocal times: \d+ pairs checked/);
     expect(stdout).toMatch(/Cautions/);
     expect(stdout).toMatch(/hidden layer/);
   });
@@ -43,7 +45,11 @@ describe('hammerline interpret', () => {
     expect(doc.schema).toBe('hammerline/interpretation@1');
     expect(doc.wave).toBe('P');
     expect(doc.layers[0]).toEqual(expect.objectContaining({ index: 1, velocity_mps: expect.any(Number), velocity_se_mps: expect.any(Number) }));
-    expect(doc.refractors[0]).toEqual(expect.objectContaining({ index: 1, method: 'intercept-time' }));
+    expect(doc.refractors[0]).toEqual(expect.objectContaining({ index: 1, method: expect.stringMatching(/GRM|delay-time/) }));
+    expect(Object.keys(doc.refractors[0].by_method).sort()).toEqual(['GRM', 'delay-time', 'intercept-time', 'plus-minus']);
+    // One point per geophone: the pump-station line has 48 (survey-examples/pump-station/README.md).
+    expect(doc.refractors[0].points).toHaveLength(48);
+    expect(doc.qc.reciprocal.length).toBeGreaterThan(0);
     expect(doc.refractors[0].points[0]).toEqual(expect.objectContaining({ x_m: expect.any(Number), depth_m: expect.any(Number), elev_m: expect.any(Number), depth_se_m: expect.any(Number) }));
     expect(doc.qc.fit_rms_ms).toBeGreaterThan(0);
     expect(Array.isArray(doc.warnings)).toBe(true);

@@ -1,0 +1,186 @@
+import { median } from '../core/stats.js';
+import type { BranchFit, Layer, Refractor, RefractorPoint } from '../core/types.js';
+import type { WarningLog } from '../core/warnings.js';
+import { delayTime } from './delayTime.js';
+import { depthAt, pointsFromDelays, type DelayProfile, type UpperDepths } from './delayProfile.js';
+import { grm } from './grm.js';
+import { headCurves } from './headWaves.js';
+import { hiddenLayerLimit, type HiddenLayerLimit } from './hiddenLayer.js';
+import { plusMinus } from './plusMinus.js';
+import { reversedPair } from './reversedPair.js';
+
+/** Methods disagree where their depths differ by more than this fraction of the depth, or… */
+export const DISAGREE_FRACTION = 0.1;
+/** …by more than this many metres, whichever is larger. */
+export const DISAGREE_METRES = 0.5;
+
+export interface ProfileInput {
+  fits: BranchFit[];
+  /** Layers down to the deepest usable refractor. */
+  layers: Layer[];
+  /** Intercept-time points per refractor (already computed). */
+  interceptPoints: RefractorPoint[][];
+  receivers: { x: number; elev: number }[];
+  spacing: number;
+  /** Pick noise, in seconds (the line-fit RMS). */
+  pickNoise: number;
+}
+
+export interface RefractorMethods extends Refractor {
+  /** Method of each recommended point, in the same order as points. */
+  pointMethods: string[];
+  /** Refractor velocity and choices of each method. */
+  methodInfo: Record<string, { velocity_mps?: number; velocity_se_mps?: number } & Record<string, unknown>>;
+  hiddenLayer?: HiddenLayerLimit;
+}
+
+/**
+ * Depths to every refractor under every geophone it covers: plus-minus and GRM between the
+ * reversed pair of sources (phantomed from off-end shots), the delay-time method over all sources,
+ * and the intercept-time depths under the sources. The recommended profile is GRM at its optimum
+ * XY where it covers (it follows an irregular refractor best), the delay-time method elsewhere
+ * (it uses every source, so it covers the ends of the line); plus-minus and intercept-time are kept
+ * in byMethod as checks. A warning is given wherever two methods differ by more than
+ * max(0.5 m, 10 % of the depth).
+ */
+export function refractorProfiles(input: ProfileInput, warnings: WarningLog): RefractorMethods[] {
+  const { layers, receivers, spacing } = input;
+  const elevation = groundElevation(receivers);
+  const range: [number, number] = [receivers[0].x, receivers[receivers.length - 1].x];
+  const result: RefractorMethods[] = [];
+  for (let n = 1; n < layers.length; n++) {
+    const curves = headCurves(input.fits, n + 1);
+    const upperOf = (method: string): UpperDepths => (x) => {
+      const depths: number[] = [];
+      const ses: number[] = [];
+      for (const above of result) {
+        const own = above.byMethod[method];
+        const value = (own && depthAt(own, x)) ?? depthAt(above.points, x);
+        if (value === undefined) return undefined;
+        depths.push(value.depth);
+        ses.push(value.se);
+      }
+      return { depths, ses };
+    };
+    const byMethod: Record<string, RefractorPoint[]> = {};
+    const methodInfo: RefractorMethods['methodInfo'] = {};
+    const record = (profile: DelayProfile | undefined) => {
+      if (profile === undefined) return;
+      byMethod[profile.method] = pointsFromDelays(profile, layers, upperOf(profile.method), elevation);
+      methodInfo[profile.method] = {
+        ...(profile.velocity ? { velocity_mps: round(profile.velocity.velocity, 1), velocity_se_mps: round(profile.velocity.se, 1) } : {}),
+        ...profile.info,
+      };
+    };
+    const pair = reversedPair(curves, range, spacing);
+    if (typeof pair === 'string') {
+      warnings.add('no-reversed-pair', `refractor ${n}: plus-minus and GRM cannot run, ${pair}; the delay-time and intercept-time methods still give depths`, { layer: n + 1 });
+    } else {
+      const pm = plusMinus(pair, n);
+      record(pm);
+      const xyFromGeometry = (velocity: number, delays: { x: number; delay: number }[]) => {
+        const profile: DelayProfile = { method: 'GRM', refractor: n, stations: delays.map((d) => ({ ...d, delaySe: 0 })), velocity: { velocity, se: 0 }, info: {} };
+        const points = pointsFromDelays(profile, layers, upperOf('GRM'), elevation);
+        const depths = points.map((p) => p.depth);
+        const thicknesses = result.map((r) => median(points.map((p) => depthAt(r.points, p.x)?.depth ?? NaN).filter(Number.isFinite)) ?? 0);
+        const total = median(depths) ?? 0;
+        const bounds = [...thicknesses, total];
+        let xy = 0;
+        bounds.forEach((depth, j) => {
+          const thickness = depth - (j === 0 ? 0 : bounds[j - 1]);
+          const sine = layers[j].velocity / velocity;
+          if (sine < 1) xy += 2 * thickness * (sine / Math.sqrt(1 - sine * sine));
+        });
+        return xy;
+      };
+      record(grm(pair, n, spacing, input.pickNoise, xyFromGeometry));
+    }
+    // The velocity is held at the layer's true velocity from the segments (forward and reverse
+    // branches together): a free velocity trades with trends in the delays wherever a receiver is
+    // recorded from one direction only. The free solution is kept for the record.
+    const free = delayTime(curves, n);
+    const held = delayTime(curves, n, { velocity: layers[n].velocity, se: layers[n].velocitySe });
+    if (held !== undefined) {
+      held.info = { ...held.info, velocity_held_at: 'the layer velocity from the segments', ...(free?.velocity ? { free_velocity_mps: round(free.velocity.velocity, 1), free_velocity_se_mps: round(free.velocity.se, 1) } : {}) };
+    }
+    record(held);
+    byMethod['intercept-time'] = input.interceptPoints[n - 1] ?? [];
+
+    const { points, pointMethods } = recommend(byMethod);
+    const method = pointMethods.length === 0 ? 'none' : [...new Set(pointMethods)].join(' + ');
+    result.push({ index: n, method, points, pointMethods, byMethod, methodInfo, hiddenLayer: hidden(input.fits, layers, n) });
+    disagreements(n, byMethod, warnings);
+    coverageGaps(n, points, receivers, warnings);
+  }
+  return result;
+}
+
+/** GRM points where GRM covers; delay-time points at the other receivers. */
+function recommend(byMethod: Record<string, RefractorPoint[]>): { points: RefractorPoint[]; pointMethods: string[] } {
+  const chosen = new Map<number, { point: RefractorPoint; method: string }>();
+  for (const method of ['delay-time', 'GRM']) {
+    for (const point of byMethod[method] ?? []) chosen.set(point.x, { point, method });
+  }
+  if (chosen.size === 0) {
+    for (const point of byMethod['plus-minus'] ?? byMethod['intercept-time'] ?? []) chosen.set(point.x, { point, method: byMethod['plus-minus'] ? 'plus-minus' : 'intercept-time' });
+  }
+  const sorted = [...chosen.entries()].sort((a, b) => a[0] - b[0]);
+  return { points: sorted.map(([, c]) => c.point), pointMethods: sorted.map(([, c]) => c.method) };
+}
+
+function disagreements(n: number, byMethod: Record<string, RefractorPoint[]>, warnings: WarningLog): void {
+  const methods = Object.keys(byMethod).filter((m) => m !== 'intercept-time');
+  for (let i = 0; i < methods.length; i++) {
+    for (let j = i + 1; j < methods.length; j++) {
+      const a = byMethod[methods[i]];
+      const bySecond = new Map(byMethod[methods[j]].map((p) => [p.x, p]));
+      const apart = a.filter((p) => {
+        const q = bySecond.get(p.x);
+        return q !== undefined && Math.abs(p.depth - q.depth) > Math.max(DISAGREE_METRES, DISAGREE_FRACTION * Math.max(p.depth, q.depth));
+      });
+      if (apart.length === 0) continue;
+      const worst = Math.max(...apart.map((p) => Math.abs(p.depth - bySecond.get(p.x)!.depth)));
+      warnings.add('methods-disagree',
+        `refractor ${n}: ${methods[i]} and ${methods[j]} depths differ by more than ${DISAGREE_METRES} m or ${DISAGREE_FRACTION * 100} % at ${apart.length} geophone${apart.length > 1 ? 's' : ''} (x = ${apart.slice(0, 6).map((p) => p.x).join(', ')}${apart.length > 6 ? ', ...' : ''} m), by up to ${worst.toFixed(2)} m: the refractor may be irregular there, or the picks inconsistent; treat those depths with care`,
+        { layer: n + 1 });
+    }
+  }
+}
+
+function coverageGaps(n: number, points: RefractorPoint[], receivers: { x: number }[], warnings: WarningLog): void {
+  const covered = new Set(points.map((p) => p.x));
+  const missing = receivers.filter((r) => !covered.has(r.x)).map((r) => r.x);
+  if (missing.length > 0) {
+    warnings.add('not-covered',
+      `refractor ${n}: no depth at ${missing.length} of ${receivers.length} geophones (x = ${missing.slice(0, 8).join(', ')}${missing.length > 8 ? ', ...' : ''} m), where no source records its head wave; shoot farther off the ends to cover them`,
+      { layer: n + 1 });
+  }
+}
+
+/** Soske's largest hidden layer above refractor n, for a hidden velocity at the geometric mean. */
+function hidden(fits: BranchFit[], layers: Layer[], n: number): HiddenLayerLimit | undefined {
+  const near = fits.filter((f) => f.segments.some((s) => s.layer === 1));
+  const intercepts = (layer: number) => median(near.flatMap((f) => f.segments.filter((s) => s.layer === layer).map((s) => s.intercept)));
+  const upper = n === 1 ? 0 : intercepts(n);
+  const lower = intercepts(n + 1);
+  if (upper === undefined || lower === undefined) return undefined;
+  const v1 = layers[n - 1].velocity;
+  const v3 = layers[n].velocity;
+  return hiddenLayerLimit(n, v1, v3, upper, lower, Math.sqrt(v1 * v3));
+}
+
+/** Ground elevation along the line from the receivers (linear interpolation, end values beyond). */
+function groundElevation(receivers: { x: number; elev: number }[]): (x: number) => number {
+  return (x) => {
+    if (x <= receivers[0].x) return receivers[0].elev;
+    const last = receivers[receivers.length - 1];
+    if (x >= last.x) return last.elev;
+    let i = 1;
+    while (receivers[i].x < x) i++;
+    const a = receivers[i - 1];
+    const b = receivers[i];
+    return a.elev + ((b.elev - a.elev) * (x - a.x)) / (b.x - a.x);
+  };
+}
+
+const round = (v: number, d: number) => Number(v.toFixed(d));
