@@ -13,7 +13,7 @@ import { assignLayers, layerVelocities } from './fit/layers.js';
 import { siteInputFromInterpretation, type VsFromVpOptions } from './site/fromInterpretation.js';
 import { assessSite, type SiteAssessment, type SiteOptions } from './site/siteAssessment.js';
 
-export const VERSION = '0.2.0';
+export const VERSION = '0.3.0';
 
 /** Warnings that show a fit took bends of the branches for layers (see staticsCorrectedFits). */
 const IRREGULAR = new Set(['apparent-velocity-decrease', 'layer-consistency', 'unreversed-layer', 'velocity-inversion', 'layer-merged']);
@@ -134,7 +134,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   }
   history.push({
     step: 'segmentedRegression',
-    parameters: { statics, criterion: 'BIC', maxSegments: options.maxSegments ?? 4, directThroughOrigin: options.directThroughOrigin ?? false, fixedSegments: options.segments ?? {}, fixedBreakpoints_m: options.breakpoints ?? {}, outlierRule: 'modified z-score > 3.5' },
+    parameters: { statics, criterion: 'BIC', maxSegments: options.maxSegments ?? 4, directThroughOrigin: options.directThroughOrigin ?? false, fixedSegments: options.segments ?? {}, fixedBreakpoints_m: options.breakpoints ?? {}, outlierRule: 'modified z-score > 5' },
   });
 
   const layerCount = assignLayers(fits, spacing, log);

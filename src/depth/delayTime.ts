@@ -17,9 +17,10 @@ const TIE_WEIGHT = 30;
  * velocity trade off.
  *
  * @param refractorVelocity - when given (m/s, with its standard error), the velocity is held at it
+ * @param errors - compute standard errors (the diagonal of the inverse normal matrix); default true
  * @returns receiver delays and the refractor velocity, or undefined with fewer observations than unknowns
  */
-export function delayTime(curves: HeadCurve[], refractor: number, refractorVelocity?: { velocity: number; se: number }): DelayProfile | undefined {
+export function delayTime(curves: HeadCurve[], refractor: number, refractorVelocity?: { velocity: number; se: number }, errors = true): DelayProfile | undefined {
   const sources = [...new Set(curves.map((c) => c.sourceId))];
   const receivers = [...new Set(curves.flatMap((c) => c.xs))].sort((a, b) => a - b);
   const sourceIndex = new Map(sources.map((s, i) => [s, i]));
@@ -94,9 +95,9 @@ export function delayTime(curves: HeadCurve[], refractor: number, refractorVeloc
     rss += (row.value - fitted) ** 2;
   }
   const variance = rss / Math.max(1, observations - unknowns + tied);
-  const inverse = cholesky.solve(Matrix.eye(unknowns, unknowns));
+  const inverseDiagonal = errors ? choleskyInverseDiagonal(cholesky.lowerTriangularMatrix.to2DArray()) : new Array(unknowns).fill(NaN);
   const slowness = fixed ? 1 / refractorVelocity.velocity : solution[slownessIndex];
-  const slownessSe = fixed ? refractorVelocity.se / refractorVelocity.velocity ** 2 : Math.sqrt(Math.max(0, inverse.get(slownessIndex, slownessIndex) * variance));
+  const slownessSe = fixed ? refractorVelocity.se / refractorVelocity.velocity ** 2 : Math.sqrt(Math.max(0, inverseDiagonal[slownessIndex] * variance));
   const counts = new Map<number, number>();
   const directions = new Map<number, Set<string>>();
   for (const c of curves) {
@@ -115,7 +116,8 @@ export function delayTime(curves: HeadCurve[], refractor: number, refractorVeloc
     refractor,
     stations: reversedReceivers.flatMap((x) => {
       const i = receiverIndex.get(x)!;
-      const v = inverse.get(i, i) * variance;
+      const v = inverseDiagonal[i] * variance;
+      if (!errors) return [{ x, delay: solution[i], delaySe: NaN }];
       return v >= 0 && Number.isFinite(v) ? [{ x, delay: solution[i], delaySe: Math.sqrt(v) }] : [];
     }),
     velocity: { velocity: 1 / slowness, se: slownessSe / (slowness * slowness) },
@@ -128,4 +130,27 @@ export function delayTime(curves: HeadCurve[], refractor: number, refractorVeloc
       one_direction_receivers: receivers.length - reversedReceivers.length,
     },
   };
+}
+
+/**
+ * Diagonal of (L Lᵀ)⁻¹ from the Cholesky factor L: (A⁻¹)ᵢᵢ = Σₖ ((L⁻¹)ₖᵢ)², with L⁻¹ by forward
+ * substitution, column by column (plain arrays: the inverse is the costly step of the method).
+ */
+function choleskyInverseDiagonal(lower: number[][]): number[] {
+  const n = lower.length;
+  const diagonal = new Array(n).fill(0);
+  const column = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    column.fill(0);
+    column[j] = 1 / lower[j][j];
+    diagonal[j] += column[j] * column[j];
+    for (let k = j + 1; k < n; k++) {
+      let sum = 0;
+      const row = lower[k];
+      for (let m = j; m < k; m++) sum -= row[m] * column[m];
+      column[k] = sum / row[k];
+      diagonal[j] += column[k] * column[k];
+    }
+  }
+  return diagonal;
 }

@@ -9,6 +9,9 @@ import { hiddenLayerLimit, type HiddenLayerLimit } from './hiddenLayer.js';
 import { plusMinus } from './plusMinus.js';
 import { reversedPair } from './reversedPair.js';
 
+/** Geophones in the running mean of an overburden refractor's depths used to convert deeper ones. */
+export const OVERBURDEN_WINDOW = 5;
+
 /** Methods disagree where their depths differ by more than this fraction of the depth, or… */
 export const DISAGREE_FRACTION = 0.1;
 /** …by more than this many metres, whichever is larger. */
@@ -37,10 +40,10 @@ export interface RefractorMethods extends Refractor {
 /**
  * Depths to every refractor under every geophone it covers: plus-minus and GRM between the
  * reversed pair of sources (phantomed from off-end shots), the delay-time method over all sources,
- * and the intercept-time depths under the sources. The recommended profile is GRM at its optimum
- * XY where it covers (it follows an irregular refractor best), the delay-time method elsewhere
- * (it uses every source, so it covers the ends of the line); plus-minus and intercept-time are kept
- * in byMethod as checks. A warning is given wherever two methods differ by more than
+ * and the intercept-time depths under the sources. The recommended profile (see recommend) is GRM
+ * at its optimum XY where the refractor proves irregular, the delay-time method (every source,
+ * so the ends of the line too, and the least noise) elsewhere; plus-minus and intercept-time are
+ * kept in byMethod as checks. A warning is given wherever two methods differ by more than
  * max(0.5 m, 10 % of the depth).
  */
 export function refractorProfiles(input: ProfileInput, warnings: WarningLog): RefractorMethods[] {
@@ -50,12 +53,20 @@ export function refractorProfiles(input: ProfileInput, warnings: WarningLog): Re
   const result: RefractorMethods[] = [];
   for (let n = 1; n < layers.length; n++) {
     const curves = headCurves(input.fits, n + 1);
+    // The refractors above enter a deeper depth amplified (by (cos θ₁/V₁)(V₂/cos θ₂), about 4 for a
+    // thin slow top layer), so their per-geophone noise is smoothed first: a running mean over
+    // OVERBURDEN_WINDOW geophones.
+    const smoothed = new Map<RefractorPoint[], RefractorPoint[]>();
+    const smooth = (points: RefractorPoint[]) => {
+      if (!smoothed.has(points)) smoothed.set(points, runningMean(points, OVERBURDEN_WINDOW));
+      return smoothed.get(points)!;
+    };
     const upperOf = (method: string): UpperDepths => (x) => {
       const depths: number[] = [];
       const ses: number[] = [];
       for (const above of result) {
         const own = above.byMethod[method];
-        const value = (own && depthAt(own, x)) ?? depthAt(above.points, x);
+        const value = (own && own.length > 0 && depthAt(smooth(own), x)) || depthAt(smooth(above.points), x);
         if (value === undefined) return undefined;
         depths.push(value.depth);
         ses.push(value.se);
@@ -97,16 +108,14 @@ export function refractorProfiles(input: ProfileInput, warnings: WarningLog): Re
     }
     // The velocity is held at the layer's true velocity from the segments (forward and reverse
     // branches together): a free velocity trades with trends in the delays wherever a receiver is
-    // recorded from one direction only. The free solution is kept for the record.
-    const free = delayTime(curves, n);
+    // recorded from one direction only.
     const held = delayTime(curves, n, { velocity: layers[n].velocity, se: layers[n].velocitySe });
-    if (held !== undefined) {
-      held.info = { ...held.info, velocity_held_at: 'the layer velocity from the segments', ...(free?.velocity ? { free_velocity_mps: round(free.velocity.velocity, 1), free_velocity_se_mps: round(free.velocity.se, 1) } : {}) };
-    }
+    if (held !== undefined) held.info = { ...held.info, velocity_held_at: 'the layer velocity from the segments' };
     record(held);
     byMethod['intercept-time'] = input.interceptPoints[n - 1] ?? [];
 
-    const { points, pointMethods } = recommend(byMethod);
+    const irregular = methodInfo['GRM']?.optimum_xy_basis === 'velocity analysis';
+    const { points, pointMethods } = recommend(byMethod, irregular);
     const method = pointMethods.length === 0 ? 'none' : [...new Set(pointMethods)].join(' + ');
     result.push({ index: n, method, points, pointMethods, byMethod, methodInfo, hiddenLayer: hidden(input.fits, layers, n) });
     disagreements(n, byMethod, warnings);
@@ -115,10 +124,15 @@ export function refractorProfiles(input: ProfileInput, warnings: WarningLog): Re
   return result;
 }
 
-/** GRM points where GRM covers; delay-time points at the other receivers. */
-function recommend(byMethod: Record<string, RefractorPoint[]>): { points: RefractorPoint[]; pointMethods: string[] } {
+/**
+ * The recommended profile. Where GRM's velocity analysis found a decisive optimum XY the refractor
+ * is irregular, and GRM follows it best: GRM where it covers, delay-time elsewhere. Otherwise the
+ * delay-time method, which averages every source's picks at each geophone, is the less noisy, with
+ * GRM only where the delay-time method leaves a geophone uncovered.
+ */
+function recommend(byMethod: Record<string, RefractorPoint[]>, irregular: boolean): { points: RefractorPoint[]; pointMethods: string[] } {
   const chosen = new Map<number, { point: RefractorPoint; method: string }>();
-  for (const method of ['delay-time', 'GRM']) {
+  for (const method of irregular ? ['delay-time', 'GRM'] : ['GRM', 'delay-time']) {
     for (const point of byMethod[method] ?? []) chosen.set(point.x, { point, method });
   }
   if (chosen.size === 0) {
@@ -184,3 +198,18 @@ function groundElevation(receivers: { x: number; elev: number }[]): (x: number) 
 }
 
 const round = (v: number, d: number) => Number(v.toFixed(d));
+
+/**
+ * Running mean of depths over `window` neighbouring points (fewer at the ends); the standard error
+ * of a mean of n points is taken as the mean standard error over √n (neighbours' errors are
+ * nearly independent for per-geophone delays).
+ */
+function runningMean(points: RefractorPoint[], window: number): RefractorPoint[] {
+  const half = Math.floor(window / 2);
+  return points.map((p, i) => {
+    const slice = points.slice(Math.max(0, i - half), Math.min(points.length, i + half + 1));
+    const depth = slice.reduce((a, q) => a + q.depth, 0) / slice.length;
+    const se = slice.reduce((a, q) => a + q.depthSe, 0) / slice.length / Math.sqrt(slice.length);
+    return { ...p, depth, elev: p.elev + p.depth - depth, depthSe: se };
+  });
+}

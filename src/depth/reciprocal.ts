@@ -25,9 +25,12 @@ export function reciprocalTolerance(pickNoise: number): number {
   return Math.max(1e-3, 3 * Math.SQRT2 * pickNoise);
 }
 
-/** A branch's first-break times by receiver position (all picks, any arrival: reciprocity holds for every first arrival). */
+/**
+ * A branch's first-break times by receiver position: every pick, outliers too (a mispick at the
+ * far end is what the check is for), any arrival (reciprocity holds for every first arrival).
+ */
 function branchCurve(fit: BranchFit) {
-  const points = fit.branch.picks.filter((p) => !fit.outlierRows.includes(p.row)).map((p) => [p.receiverX, p.time] as const).sort((a, b) => a[0] - b[0]);
+  const points = fit.branch.picks.map((p) => [p.receiverX, p.time] as const).sort((a, b) => a[0] - b[0]);
   return { xs: points.map((p) => p[0]), times: points.map((p) => p[1]) };
 }
 

@@ -91,7 +91,7 @@ export function branchFit(branch: Branch, fit: SegmentedFit, file: string, warni
   const outlierRows = fit.outliers.map((i) => branch.picks[i].row);
   if (outlierRows.length > 0) {
     warnings.add('outlier-pick',
-      `${name} branch: pick${outlierRows.length > 1 ? 's' : ''} on row${outlierRows.length > 1 ? 's' : ''} ${outlierRows.join(', ')} ${outlierRows.length > 1 ? 'lie' : 'lies'} far off the fitted lines (modified z-score above 3.5) and ${outlierRows.length > 1 ? 'were' : 'was'} left out of the fit; check ${outlierRows.length > 1 ? 'them' : 'it'}`,
+      `${name} branch: pick${outlierRows.length > 1 ? 's' : ''} on row${outlierRows.length > 1 ? 's' : ''} ${outlierRows.join(', ')} ${outlierRows.length > 1 ? 'lie' : 'lies'} far off the fitted lines (modified z-score above 5) and ${outlierRows.length > 1 ? 'were' : 'was'} left out of the fit; check ${outlierRows.length > 1 ? 'them' : 'it'}`,
       { where: { file, source: branch.sourceId } });
   }
   if (fit.slopeIncreaseKept) {

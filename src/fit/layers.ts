@@ -55,7 +55,9 @@ export function assignLayers(fits: BranchFit[], spacing: number, warnings: Warni
       if (mid === undefined) continue;
       for (const { f, s } of members) {
         const ratio = s.slowness / mid;
-        if (ratio > CONSISTENCY_RATIO || ratio < 1 / CONSISTENCY_RATIO) {
+        // Only a significant departure: a short segment's slope is too uncertain to accuse.
+        const significant = Math.abs(s.slowness - mid) > 3 * s.slownessSe;
+        if (significant && (ratio > CONSISTENCY_RATIO || ratio < 1 / CONSISTENCY_RATIO)) {
           warnings.add('layer-consistency',
             `${f.branch.sourceId}:${f.branch.side} segment ${s.order} (apparent velocity ${Math.round(s.apparentVelocity)} m/s) is assigned to layer ${k}, whose median apparent velocity on ${side} branches is ${Math.round(1 / mid)} m/s; check the picks or fix the branch's segments`,
             { layer: k });

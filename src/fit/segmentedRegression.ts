@@ -19,6 +19,8 @@ export interface SegmentedOptions {
   presetOutliers?: number[];
   /** Who chose the breakpoints when they are given: the user (default) or an earlier fit. */
   breakpointsFrom?: 'user' | 'criterion';
+  /** Refit the chosen lines jointly through hinges (default true); false keeps each segment's own line. */
+  continuous?: boolean;
   /** Fewest points in one segment; default 3 (two points leave no residual for a standard error). */
   minPoints?: number;
   /**
@@ -83,8 +85,16 @@ const PARAMETERS_PER_BREAKPOINT = 3;
 /** Least t statistic of the slope change at a breakpoint for the criterion to keep it (about p < 0.0001 for one test; the search makes many). */
 const MIN_BREAK_T = 4;
 
-/** Modified z-score beyond which a residual is an outlier (Iglewicz & Hoaglin 1993). */
-const OUTLIER_Z = 3.5;
+/**
+ * Modified z-score beyond which a residual is an outlier. Iglewicz & Hoaglin (1993) suggest 3.5
+ * to screen data for a look; picks beyond it are left out of the fit here, so a stricter 5 is
+ * used (a normal residual exceeds it about once in two million picks; a mispick of a few
+ * milliseconds at 0.25 ms noise scores well above 10).
+ */
+const OUTLIER_Z = 5;
+
+/** A slowing segment kept because the data insist must have at least this many picks. */
+const MIN_INVERSION_PICKS = 6;
 
 /**
  * Segmented regression of y on x (x sorted ascending) by an exact search: for each segment
@@ -97,8 +107,8 @@ const OUTLIER_Z = 3.5;
  * significant (t > 4). The chosen lines are then refitted jointly as a continuous hinge model
  * (the lines meet at the crossover distances, as first-arrival times do), knots searched near
  * the breakpoints, with ml-regression; standard errors come from that fit's covariance. Outliers
- * are flagged where the modified z-score of the residual, 0.6745 (r − median) / MAD, exceeds 3.5
- * (Iglewicz & Hoaglin 1993), and the fit is repeated without them.
+ * are flagged where the modified z-score of the residual, 0.6745 (r − median) / MAD, exceeds 5
+ * (Iglewicz & Hoaglin 1993; see OUTLIER_Z), and the fit is repeated without them.
  *
  * @param x - offsets, in metres, ascending
  * @param y - times, in seconds
@@ -118,15 +128,18 @@ export function segmentedRegression(x: number[], y: number[], options: Segmented
     const refit = fitSubset(x, y, all.filter((i) => !preset.includes(i)), options, maxSegments, minPoints);
     return refit && { ...refit, outliers: [...preset] };
   }
-  const fit = fitSubset(x, y, all, options, maxSegments, minPoints);
-  if (fit === undefined) return undefined;
-  const outliers = flagOutliers(x, y, all, fit.segments);
+  // Outliers are judged on each segment's own line (cheap), then the final fit is made without them.
+  const first = fitSubset(x, y, all, { ...options, continuous: false }, maxSegments, minPoints);
+  if (first === undefined) return undefined;
+  const outliers = flagOutliers(x, y, all, first.segments);
   if (outliers.length > 0 && x.length - outliers.length >= minPoints) {
     const kept = all.filter((i) => !outliers.includes(i));
     const refit = fitSubset(x, y, kept, options, maxSegments, minPoints);
     if (refit !== undefined) return { ...refit, outliers };
   }
-  return { ...fit, outliers: [] };
+  if (options.continuous === false) return { ...first, outliers: [] };
+  const fit = fitSubset(x, y, all, options, maxSegments, minPoints);
+  return fit && { ...fit, outliers: [] };
 }
 
 interface Sums { n: number[]; sx: number[]; sy: number[]; sxx: number[]; sxy: number[]; syy: number[] }
@@ -187,7 +200,7 @@ function fitSubset(
       }
     }
     const partition = { cuts, rss: partitionRss(sums, cuts, n, origin) };
-    return finish(x, y, keep, partition, origin, [bicOf(partition.rss, cuts.length + 1)], false, options.breakpointsFrom ?? 'user', bps, options.breakpointsFrom === 'criterion');
+    return finish(x, y, keep, partition, origin, [bicOf(partition.rss, cuts.length + 1)], false, options.breakpointsFrom ?? 'user', bps, options.breakpointsFrom === 'criterion', options.continuous !== false);
   }
   const fixed = options.segments;
   if (fixed !== undefined && !(Number.isInteger(fixed) && fixed >= 1 && fixed <= 4)) {
@@ -196,14 +209,17 @@ function fitSubset(
   const top = fixed ?? maxSegments;
   const bic: (number | undefined)[] = [];
   const chosen: ({ partition: Partition; inverted: boolean } | undefined)[] = [];
+  const table = costTable(sums, n, origin);
+  const partitions = bestPartitions(table, n, Math.min(top, Math.floor(n / minPoints)), minPoints);
   for (let m = 1; m <= top; m++) {
     if (m * minPoints > n) break;
-    const free = bestPartition(sums, n, m, minPoints, origin);
+    const free = partitions[m];
     let choice: { partition: Partition; inverted: boolean } | undefined = { partition: free, inverted: false };
     const slopes = segmentSlopes(sums, free.cuts, n, origin);
     if (!contrasted(slopes, false)) {
-      const constrained = bestDecreasingPartition(sums, n, m, minPoints, origin);
-      const insists = !options.forbidSlopeIncrease && contrasted(slopes, true)
+      const constrained = bestDecreasingPartition(table, n, m, minPoints);
+      const longEnough = [0, ...free.cuts, n].slice(1).every((end, k) => end - [0, ...free.cuts][k] >= MIN_INVERSION_PICKS);
+      const insists = !options.forbidSlopeIncrease && longEnough && contrasted(slopes, true)
         && (constrained === undefined || bicOf(constrained.rss, m) - bicOf(free.rss, m) > INVERSION_EVIDENCE_BIC);
       choice = insists ? { partition: free, inverted: true } : constrained && { partition: constrained, inverted: false };
     }
@@ -216,7 +232,8 @@ function fitSubset(
       ? `${fixed} segments need at least ${fixed * minPoints} picks; the branch has ${n}`
       : `no split into ${fixed} segments gives apparent velocities each at least ${Math.round((MIN_VELOCITY_CONTRAST - 1) * 100)} % faster than the one before; fix the breakpoints instead`);
   }
-  if (fixed !== undefined) return finish(x, y, keep, chosen[fixed - 1]!.partition, origin, bic, chosen[fixed - 1]!.inverted, 'user');
+  const continuous = options.continuous !== false;
+  if (fixed !== undefined) return finish(x, y, keep, chosen[fixed - 1]!.partition, origin, bic, chosen[fixed - 1]!.inverted, 'user', undefined, true, continuous);
   const order = chosen
     .map((c, m) => ({ c, m }))
     .filter(({ c, m }) => c !== undefined && (m === 0 || significantBreaks(x, y, c.partition, origin)))
@@ -224,7 +241,7 @@ function fitSubset(
   // The joint (hinge) refit can turn a short segment's slope to zero or less on a bent branch:
   // such a count does not describe first arrivals, so the next best count is taken.
   for (const { c, m } of order) {
-    const result = finish(x, y, keep, c!.partition, origin, bic, c!.inverted, 'criterion');
+    const result = finish(x, y, keep, c!.partition, origin, bic, c!.inverted, 'criterion', undefined, true, continuous);
     if (m === 0 || result.segments.every((segment) => segment.slope > 0)) return result;
   }
   return undefined;
@@ -281,59 +298,91 @@ function contrasted(slopes: number[], eitherWay: boolean): boolean {
   return true;
 }
 
-/** Exact least-squares partition into m contiguous segments by dynamic programming. */
-function bestPartition(s: Sums, n: number, m: number, minPoints: number, origin: boolean): Partition {
+/** Residual sum of squares of the line through points [i, j), for every i < j (the first segment's with the origin option). */
+interface RangeTable { free: Float64Array; slope: Float64Array; first: Float64Array; firstSlope: Float64Array }
+
+function costTable(s: Sums, n: number, origin: boolean): RangeTable {
+  const free = new Float64Array((n + 1) * (n + 1));
+  const slope = new Float64Array((n + 1) * (n + 1));
+  const first = new Float64Array(n + 1);
+  const firstSlope = new Float64Array(n + 1);
+  for (let i = 0; i < n; i++) {
+    for (let j = i + 1; j <= n; j++) {
+      const line = rangeLine(s, i, j, false);
+      free[i * (n + 1) + j] = line.rss;
+      slope[i * (n + 1) + j] = line.slope;
+    }
+  }
+  for (let j = 1; j <= n; j++) {
+    const line = origin ? rangeLine(s, 0, j, true) : { rss: free[j], slope: slope[j] };
+    first[j] = line.rss;
+    firstSlope[j] = line.slope;
+  }
+  return { free, slope, first, firstSlope };
+}
+
+/**
+ * Exact least-squares partitions into 1 … maxM contiguous segments by dynamic programming over
+ * a table of every range's residual (Bellman 1961).
+ */
+function bestPartitions(table: RangeTable, n: number, maxM: number, minPoints: number): Partition[] {
   // cost[k][j]: least rss of the first j points in k segments; from[k][j]: start of the last segment.
-  const cost: number[][] = [];
-  const from: number[][] = [];
-  for (let k = 1; k <= m; k++) {
-    cost[k] = new Array(n + 1).fill(Infinity);
-    from[k] = new Array(n + 1).fill(-1);
+  const cost: Float64Array[] = [];
+  const from: Int32Array[] = [];
+  const partitions: Partition[] = [];
+  for (let k = 1; k <= maxM; k++) {
+    cost[k] = new Float64Array(n + 1).fill(Infinity);
+    from[k] = new Int32Array(n + 1).fill(-1);
     for (let j = k * minPoints; j <= n; j++) {
       if (k === 1) {
-        cost[1][j] = rangeLine(s, 0, j, origin).rss;
+        cost[1][j] = table.first[j];
         from[1][j] = 0;
         continue;
       }
+      let best = Infinity;
+      let at = -1;
       for (let i = (k - 1) * minPoints; i <= j - minPoints; i++) {
-        const c = cost[k - 1][i] + rangeLine(s, i, j, false).rss;
-        if (c < cost[k][j]) {
-          cost[k][j] = c;
-          from[k][j] = i;
-        }
+        const c = cost[k - 1][i] + table.free[i * (n + 1) + j];
+        if (c < best) { best = c; at = i; }
       }
+      cost[k][j] = best;
+      from[k][j] = at;
     }
+    const cuts: number[] = [];
+    let j = n;
+    for (let level = k; level > 1; level--) {
+      j = from[level][j];
+      cuts.unshift(j);
+    }
+    partitions[k] = { cuts, rss: cost[k][n] };
   }
-  const cuts: number[] = [];
-  let j = n;
-  for (let k = m; k > 1; k--) {
-    j = from[k][j];
-    cuts.unshift(j);
-  }
-  return { cuts, rss: cost[m][n] };
+  return partitions;
 }
 
 /**
  * Exhaustive search over every partition whose slopes decrease along x by the minimum contrast;
  * undefined if none does.
  */
-function bestDecreasingPartition(s: Sums, n: number, m: number, minPoints: number, origin: boolean): Partition | undefined {
+function bestDecreasingPartition(table: RangeTable, n: number, m: number, minPoints: number): Partition | undefined {
   let best: Partition | undefined;
   const cuts: number[] = [];
+  const stride = n + 1;
   const visit = (k: number, start: number, previousSlope: number, rss: number) => {
     if (best !== undefined && rss >= best.rss) return;
     if (k === m) {
-      const last = rangeLine(s, start, n, origin && k === 1);
-      if (last.slope > 0 && last.slope * MIN_VELOCITY_CONTRAST <= previousSlope && (best === undefined || rss + last.rss < best.rss)) {
-        best = { cuts: [...cuts], rss: rss + last.rss };
+      const lastRss = k === 1 ? table.first[n] : table.free[start * stride + n];
+      const lastSlope = k === 1 ? table.firstSlope[n] : table.slope[start * stride + n];
+      if (lastSlope > 0 && lastSlope * MIN_VELOCITY_CONTRAST <= previousSlope && (best === undefined || rss + lastRss < best.rss)) {
+        best = { cuts: [...cuts], rss: rss + lastRss };
       }
       return;
     }
     for (let end = start + minPoints; end <= n - (m - k) * minPoints; end++) {
-      const line = rangeLine(s, start, end, origin && k === 1);
-      if (!(line.slope > 0) || line.slope * MIN_VELOCITY_CONTRAST > previousSlope) continue;
+      const slope = k === 1 ? table.firstSlope[end] : table.slope[start * stride + end];
+      if (!(slope > 0) || slope * MIN_VELOCITY_CONTRAST > previousSlope) continue;
+      const lineRss = k === 1 ? table.first[end] : table.free[start * stride + end];
       cuts.push(end);
-      visit(k + 1, end, line.slope, rss + line.rss);
+      visit(k + 1, end, slope, rss + lineRss);
       cuts.pop();
     }
   };
@@ -344,14 +393,14 @@ function bestDecreasingPartition(s: Sums, n: number, m: number, minPoints: numbe
 function finish(
   x: number[], y: number[], keep: number[], partition: Partition, origin: boolean,
   bic: (number | undefined)[], slopeIncreaseKept: boolean, chosenBy: 'criterion' | 'user', userKnots?: number[],
-  knotsEstimated = userKnots === undefined,
+  knotsEstimated = userKnots === undefined, continuous = true,
 ): Omit<SegmentedFit, 'outliers'> {
   const n = x.length;
   const bounds = [0, ...partition.cuts, n];
   const m = bounds.length - 1;
   let knots: number[] = [];
   if (userKnots !== undefined) knots = userKnots;
-  else if (m > 1) {
+  else if (m > 1 && continuous) {
     const sums = prefixSums(x, y);
     const free = bounds.slice(1).map((end, k) => {
       const line = rangeLine(sums, bounds[k], end, origin && k === 0);
@@ -375,6 +424,16 @@ function finish(
       return Number.isFinite(crossing) ? Math.min(hi, Math.max(lo, crossing)) : (lo + hi) / 2;
     });
     knots = optimiseKnots(x, y, start, intervals, origin);
+  }
+  if (!continuous) {
+    const ends = [...partition.cuts, n];
+    const own = separateLines(x, y, ends, origin);
+    const bounds = [0, ...ends];
+    const rssTotal = partitionRss(prefixSums(x, y), partition.cuts, n, origin);
+    return {
+      segments: own.map((line, k) => ({ start: keep[bounds[k]], end: keep[bounds[k + 1] - 1] + 1, ...line, throughOrigin: origin && k === 0, knot: undefined })),
+      residualSd: Math.sqrt(rssTotal / Math.max(1, n - 2 * own.length)), bic, slopeIncreaseKept, chosenBy,
+    };
   }
   const hinge = hingeFit(x, y, knots, origin, knotsEstimated);
   // Picks before a knot belong to the segment ending there.
@@ -428,7 +487,7 @@ function separateLines(x: number[], y: number[], ends: number[], origin: boolean
   });
 }
 
-/** Points whose residual from their segment's line has a modified z-score above 3.5. */
+/** Points whose residual from their segment's line has a modified z-score above OUTLIER_Z. */
 function flagOutliers(x: number[], y: number[], keep: number[], segments: LineSegment[]): number[] {
   const residuals: { index: number; r: number }[] = [];
   for (const seg of segments) {

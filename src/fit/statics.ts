@@ -49,7 +49,7 @@ export function staticsCorrectedFits(branches: Branch[], choices: BranchChoices,
     points.sort((a, b) => a[0] - b[0]);
     curves.push({ sourceId: branch.sourceId, sourceX: branch.sourceX, side: branch.side, xs: points.map((p) => p[0]), times: points.map((p) => p[1]) });
   }
-  const delays = delayTime(curves, 1);
+  const delays = delayTime(curves, 1, undefined, false);
   if (delays === undefined) return undefined;
   const mean = delays.stations.reduce((a, s) => a + s.delay, 0) / delays.stations.length;
   const correction = new Map(delays.stations.map((s) => [s.x, s.delay - mean]));
