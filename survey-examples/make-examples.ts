@@ -4,7 +4,10 @@
  * sampled interfaces) plus seeded Gaussian pick noise. Run: npx tsx survey-examples/make-examples.ts
  */
 import { writeFileSync } from 'node:fs';
-import { syntheticCsv, type LayeredSection } from '../test/reference/layeredTravelTimes.js';
+import { mkdirSync } from 'node:fs';
+import { writeSeg2 } from '../test/io/seg2/writeSeg2.js';
+import { causalTrace } from '../test/picking/syntheticRecord.js';
+import { firstArrivals, syntheticCsv, type LayeredSection } from '../test/reference/layeredTravelTimes.js';
 
 interface Example {
   folder: string;
@@ -82,4 +85,40 @@ for (const example of examples) {
   const path = new URL(`./${example.folder}/${example.file ?? 'first-breaks.csv'}`, import.meta.url);
   writeFileSync(path, text);
   process.stdout.write(`wrote ${path.pathname}\n`);
+}
+
+// Shot records (SEG-2) of the pump-station line: one file per source, the first arrival a causal
+// 60 Hz wavelet at the forward-model time, signal-to-noise falling with offset from about 44 to 5,
+// 0.25 ms sampling with 5 ms of pre-trigger (DELAY -0.005 s), 32-bit integer samples. Channel 17 of
+// the third shot is a dead trace (TRACE_TYPE DEAD, all zeros).
+{
+  const example = examples[0];
+  const folder = new URL('./pump-station/records/', import.meta.url);
+  mkdirSync(folder, { recursive: true });
+  const dt = 0.00025;
+  const delay = -0.005;
+  const samples = 600;
+  example.sources.forEach((sx, s) => {
+    const times = firstArrivals(example.section, sx, example.receivers, [Math.min(...example.sources) - 5, Math.max(...example.sources) + 5]);
+    const traces = example.receivers.map((rx, r) => {
+      const offset = Math.abs(rx - sx);
+      const snr = 40 * Math.exp(-offset / 40) + 4;
+      const dead = s === 2 && r === 16;
+      const data = dead ? new Float32Array(samples) : causalTrace(samples, dt, delay, times[r], snr, 1000 * (s + 1) + r);
+      const keywords: [string, string][] = [
+        ['CHANNEL_NUMBER', String(r + 1)],
+        ['SAMPLE_INTERVAL', String(dt)],
+        ['DELAY', String(delay)],
+        ['DESCALING_FACTOR', '0.001'],
+        ['SOURCE_LOCATION', `${sx} 0 ${example.section.surface(sx).toFixed(3)}`],
+        ['RECEIVER_LOCATION', `${rx} 0 ${example.section.surface(rx).toFixed(3)}`],
+        ['STACK', '8'],
+        ...(dead ? [['TRACE_TYPE', 'DEAD'] as [string, string]] : []),
+      ];
+      return { code: 2 as const, keywords, samples: Array.from(data, (v) => Math.round(v * 1000)) };
+    });
+    const bytes = writeSeg2(traces, { fileKeywords: [['UNITS', 'METERS'], ['NOTE', 'Invented example: line PS-1, Marlow Fen pump station (fictional). Synthetic record.']] });
+    writeFileSync(new URL(`S${s + 1}.seg2`, folder), bytes);
+  });
+  process.stdout.write(`wrote ${example.sources.length} records in ${folder.pathname}\n`);
 }

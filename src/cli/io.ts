@@ -7,6 +7,7 @@ export interface CliIo {
   stdout: (text: string) => void;
   stderr: (text: string) => void;
   readText: (path: string) => string;
+  readBytes: (path: string) => Uint8Array;
   /** Writes a file whole or not at all: a half-written file never replaces a good one. */
   writeText: (path: string, text: string) => void;
 }
@@ -27,5 +28,6 @@ export const processIo: CliIo = {
   stdout: (text) => process.stdout.write(text),
   stderr: (text) => process.stderr.write(text),
   readText: (path) => readFileSync(path, 'utf8'),
+  readBytes: (path) => new Uint8Array(readFileSync(path)),
   writeText: writeAtomic,
 };

@@ -128,18 +128,29 @@ export function segmentedRegression(x: number[], y: number[], options: Segmented
     const refit = fitSubset(x, y, all.filter((i) => !preset.includes(i)), options, maxSegments, minPoints);
     return refit && { ...refit, outliers: [...preset] };
   }
-  // Outliers are judged on each segment's own line (cheap), then the final fit is made without them.
-  const first = fitSubset(x, y, all, { ...options, continuous: false }, maxSegments, minPoints);
-  if (first === undefined) return undefined;
-  const outliers = flagOutliers(x, y, all, first.segments);
-  if (outliers.length > 0 && x.length - outliers.length >= minPoints) {
+  // Outliers are found one at a time on each segment's own lines (cheap fits): the worst
+  // residual beyond the modified z-score bound is left out and the fit repeated, until none is
+  // beyond it. One at a time, because a gross mispick can hide a short segment from a fit that
+  // still holds it, and flagging every large residual at once would then condemn that segment's
+  // honest picks. At most a tenth of the points (and ten) are left out.
+  const quick = { ...options, continuous: false };
+  const outliers: number[] = [];
+  const most = Math.min(10, Math.floor(x.length / 10));
+  let current = fitSubset(x, y, all, quick, maxSegments, minPoints);
+  if (current === undefined) return undefined;
+  while (outliers.length < most) {
     const kept = all.filter((i) => !outliers.includes(i));
-    const refit = fitSubset(x, y, kept, options, maxSegments, minPoints);
-    if (refit !== undefined) return { ...refit, outliers };
+    const worst = worstOutlier(x, y, kept, current.segments);
+    if (worst === undefined) break;
+    outliers.push(worst);
+    const refit = fitSubset(x, y, all.filter((i) => !outliers.includes(i)), quick, maxSegments, minPoints);
+    if (refit === undefined) { outliers.pop(); break; }
+    current = refit;
   }
-  if (options.continuous === false) return { ...first, outliers: [] };
-  const fit = fitSubset(x, y, all, options, maxSegments, minPoints);
-  return fit && { ...fit, outliers: [] };
+  outliers.sort((a, b) => a - b);
+  if (options.continuous === false) return { ...current, outliers };
+  const fit = fitSubset(x, y, all.filter((i) => !outliers.includes(i)), options, maxSegments, minPoints);
+  return fit && { ...fit, outliers };
 }
 
 interface Sums { n: number[]; sx: number[]; sy: number[]; sxx: number[]; sxy: number[]; syy: number[] }
@@ -487,8 +498,14 @@ function separateLines(x: number[], y: number[], ends: number[], origin: boolean
   });
 }
 
-/** Points whose residual from their segment's line has a modified z-score above OUTLIER_Z. */
-function flagOutliers(x: number[], y: number[], keep: number[], segments: LineSegment[]): number[] {
+/** The point with the largest modified z-score, when it is above OUTLIER_Z. */
+function worstOutlier(x: number[], y: number[], keep: number[], segments: LineSegment[]): number | undefined {
+  const flagged = flagOutliers(x, y, keep, segments, true);
+  return flagged[0];
+}
+
+/** Points whose residual from their segment's line has a modified z-score above OUTLIER_Z (worst first when sorted). */
+function flagOutliers(x: number[], y: number[], keep: number[], segments: LineSegment[], worstFirst = false): number[] {
   const residuals: { index: number; r: number }[] = [];
   for (const seg of segments) {
     for (const i of keep) {
@@ -503,5 +520,7 @@ function flagOutliers(x: number[], y: number[], keep: number[], segments: LineSe
   const med = median(residuals.map((e) => e.r));
   // Floor the spread at 0.05 ms so that near-exact data do not flag rounding as outliers.
   const mad = Math.max(median(residuals.map((e) => Math.abs(e.r - med))), 0.05e-3);
-  return residuals.filter((e) => (0.6745 * Math.abs(e.r - med)) / mad > OUTLIER_Z).map((e) => e.index);
+  const flagged = residuals.filter((e) => (0.6745 * Math.abs(e.r - med)) / mad > OUTLIER_Z);
+  if (worstFirst) flagged.sort((a, b) => Math.abs(b.r - med) - Math.abs(a.r - med));
+  return flagged.map((e) => e.index);
 }

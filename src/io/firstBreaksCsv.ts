@@ -15,6 +15,8 @@ export interface ReadFirstBreaksOptions {
 const KNOWN_COLUMNS = new Set([
   'source_id', 'source_x', 'source_elev', 'receiver_x', 'receiver_elev', 'time_ms', 'time_s', 'wave',
 ]);
+/** Columns written by `hammerline pick`: kept with each pick like unknown columns, but expected, so not warned about. */
+const PICK_COLUMNS = new Set(['confidence', 'source_file', 'trace']);
 
 /** Above this median apparent velocity, in m/s, times in a millisecond column look like seconds. */
 const FASTEST_PLAUSIBLE_MPS = 20_000;
@@ -167,7 +169,9 @@ export function readFirstBreaks(
   fillSourceElevations(picks, rawSourceElev, file, hasSourceElev, hasReceiverElev, warnings);
   checkDuplicates(picks, file);
 
-  if (extraColumns.length > 0) {
+  const unknown = extraColumns.filter((c) => !PICK_COLUMNS.has(c));
+  if (unknown.length > 0) {
+    const extraColumns = unknown;
     warnings.add('unknown-columns', `column${extraColumns.length > 1 ? 's' : ''} ${extraColumns.join(', ')} ${extraColumns.length > 1 ? 'are' : 'is'} not used by the interpretation; kept with each pick and carried to exports`, { where: { file } });
   }
   const zeroOffset = picks.filter((p) => p.receiverX === p.sourceX);

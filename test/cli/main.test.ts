@@ -19,6 +19,7 @@ function run(argv: string[], files: Record<string, string> = {}) {
       if (path in files) return files[path];
       return readFileSync(path, 'utf8');
     },
+    readBytes: (path) => (path in files ? new TextEncoder().encode(files[path]) : new Uint8Array(readFileSync(path))),
     writeText: (path, text) => { written[path] = text; },
   };
   const code = main(argv, io);

@@ -1,0 +1,45 @@
+import { fromMetres, type LengthUnit } from '../core/units.js';
+import type { PickRow } from '../picking/recordPicks.js';
+
+const number = (value: number, digits: number) => Number(value.toFixed(digits)).toString();
+
+/**
+ * The first-break table (CSV, the DESIGN.md contract) of automatic picks, with the confidence,
+ * the source file and the trace number of each pick. Unpicked traces are not rows (the caller
+ * reports them). Elevation columns are written when every row has them.
+ */
+export function pickTableCsv(rows: PickRow[], unit: LengthUnit = 'm'): string {
+  const picked = rows.filter((r) => r.time !== undefined);
+  const withElevations = picked.length > 0 && picked.every((r) => r.sourceElev !== undefined && r.receiverElev !== undefined);
+  const header = ['source_id', 'source_x', ...(withElevations ? ['source_elev'] : []), 'receiver_x', ...(withElevations ? ['receiver_elev'] : []), 'time_ms', 'confidence', 'source_file', 'trace'];
+  const quote = (text: string) => (/[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text);
+  const lines = picked.map((r) => [
+    quote(r.sourceId),
+    number(fromMetres(r.sourceX, unit), 4),
+    ...(withElevations ? [number(fromMetres(r.sourceElev!, unit), 4)] : []),
+    number(fromMetres(r.receiverX, unit), 4),
+    ...(withElevations ? [number(fromMetres(r.receiverElev!, unit), 4)] : []),
+    number(r.time! * 1e3, 4),
+    number(r.confidence, 3),
+    quote(r.file),
+    String(r.trace),
+  ].join(','));
+  return [header.join(','), ...lines].join('\n') + '\n';
+}
+
+/** A sentence per record on the traces left unpicked, for stderr and the report. */
+export function unpickedSummary(rows: PickRow[]): string[] {
+  const byFile = new Map<string, PickRow[]>();
+  for (const r of rows) if (r.time === undefined) {
+    if (!byFile.has(r.file)) byFile.set(r.file, []);
+    byFile.get(r.file)!.push(r);
+  }
+  return [...byFile.entries()].map(([file, missing]) => {
+    const byStatus = new Map<string, number[]>();
+    for (const r of missing) {
+      if (!byStatus.has(r.status)) byStatus.set(r.status, []);
+      byStatus.get(r.status)!.push(r.trace);
+    }
+    return `${file}: ${missing.length} trace${missing.length > 1 ? 's' : ''} not picked (${[...byStatus.entries()].map(([status, traces]) => `${status}: ${traces.join(', ')}`).join('; ')})`;
+  });
+}

@@ -1,0 +1,221 @@
+import { segmentedRegression } from '../fit/segmentedRegression.js';
+import { aicOnset } from './aic.js';
+import { energyPrefix, staLtaTrigger } from './staLta.js';
+
+/** A trace to pick: samples, time axis, and its offset from the source. */
+export interface PickTrace {
+  data: Float32Array;
+  /** Sample interval and time of the first sample (DELAY), in seconds. */
+  sampleInterval: number;
+  delay: number;
+  /** Receiver position minus source position, in metres (sign gives the side). */
+  offset: number;
+  dead?: boolean;
+}
+
+export type PickStatus = 'picked' | 'repicked' | 'dead' | 'no clear onset' | 'inconsistent';
+
+export interface TracePick {
+  /** First-break time after the shot, in seconds; undefined when not picked. */
+  time?: number;
+  /** 0 (a guess) to 1 (a clear onset), from the signal-to-noise ratio at the pick. */
+  confidence: number;
+  status: PickStatus;
+  /** Ratio of RMS amplitude just after the pick to just before it. */
+  snr?: number;
+}
+
+export interface PickOptions {
+  /** STA window, in seconds; default 2 ms. */
+  shortWindow?: number;
+  /** LTA window, in seconds; default 20 ms. */
+  longWindow?: number;
+  /** STA/LTA energy ratio that triggers; default 4. */
+  threshold?: number;
+  /** Half-width of the AIC window after the trigger, in seconds; default 6 ms. */
+  aicWindow?: number;
+}
+
+/**
+ * Automatic first-break picking of one shot record, from published methods:
+ * 1. per trace, an STA/LTA trigger on the energy (Allen 1978), then the AIC picker (Maeda 1985)
+ *    between the start of the record and a window past the trigger, for the onset;
+ * 2. across the record, the picks of each side against offset are fitted by the segmented
+ *    regression of the interpretation (velocities increasing with depth only, outliers by modified
+ *    z-score); a pick far off that travel-time curve (a late noise burst, the ground roll, a
+ *    pre-trigger spike) is picked again by AIC in a window around the predicted time, and left
+ *    unpicked when that does not agree either.
+ * Confidence is 1 − exp(−(snr − 1)/3), snr the RMS ratio after/before the pick over one STA window;
+ * halved for a re-pick. Dead traces (marked DEAD, or constant) are not picked.
+ */
+export function pickRecord(traces: PickTrace[], options: PickOptions = {}): TracePick[] {
+  const picks = traces.map((t) => pickTrace(t, options));
+  for (const side of [-1, 1]) {
+    const members = traces.map((t, i) => ({ t, i })).filter(({ t, i }) => Math.sign(t.offset) === side && picks[i].time !== undefined)
+      .sort((a, b) => Math.abs(a.t.offset) - Math.abs(b.t.offset));
+    if (members.length < 6) continue;
+    // Spikes first: a pick far from the line through its neighbours (two each side) cannot be
+    // trusted to shape the travel-time curve that judges the others.
+    const dt = members[0].t.sampleInterval;
+    const spikes = new Set(localSpikes(members.map(({ t }) => Math.abs(t.offset)), members.map(({ i }) => picks[i].time!), dt));
+    const clean = members.filter((_, k) => !spikes.has(k));
+    if (clean.length < 6) continue;
+    const x = clean.map(({ t }) => Math.abs(t.offset));
+    const y = clean.map(({ i }) => picks[i].time!);
+    const fit = segmentedRegression(x, y, { forbidSlopeIncrease: true, maxSegments: 3, continuous: false });
+    if (fit === undefined) continue;
+    // First arrivals follow the lower envelope of the segment lines (each line wins beyond its crossover).
+    const predict = (offset: number) => Math.min(...fit.segments.map((segment) => segment.intercept + segment.slope * offset));
+    const tolerance = Math.max(4 * fit.residualSd, 3 * dt, 1e-3);
+    // Traces with no onset of their own are tried at the predicted time too.
+    const candidates = [
+      ...members.filter(({ i, t }, k) => spikes.has(k) || fit.outliers.includes(clean.findIndex((m) => m.i === i)) || Math.abs(picks[i].time! - predict(Math.abs(t.offset))) > tolerance).map(({ i }) => i),
+      ...traces.map((t, i) => ({ t, i })).filter(({ t, i }) => Math.sign(t.offset) === side && picks[i].status === 'no clear onset').map(({ i }) => i),
+    ];
+    for (const i of candidates) {
+      const t = traces[i];
+      const predicted = predict(Math.abs(t.offset));
+      const again = pickNear(t, predicted, Math.max(3 * tolerance, 4e-3), options);
+      if (again !== undefined && Math.abs(again.time! - predicted) <= tolerance && (again.snr ?? 0) >= 1.5) {
+        picks[i] = { ...again, status: 'repicked', confidence: again.confidence / 2 };
+      } else if (picks[i].time !== undefined) {
+        picks[i] = { confidence: 0, status: 'inconsistent', snr: picks[i].snr };
+      }
+    }
+  }
+  return picks;
+}
+
+/**
+ * Picks (sorted by offset) that lie far from the travel-time curve their neighbours draw: the
+ * departure is the smaller of the misfits to the line through the two neighbours before and the
+ * line through the two after (at a crossover a good pick lies on one of them; a spike on neither).
+ * A spike departs by more than six robust deviations (1.4826 × the median departure) and more than
+ * max(5 samples, 2 ms). Removed worst first and the rest judged again, up to a fifth of the picks.
+ */
+export function localSpikes(x: number[], y: number[], dt: number): number[] {
+  const out: number[] = [];
+  const excluded = new Set<number>();
+  const side = (k: number, step: -1 | 1) => {
+    const near: number[] = [];
+    for (let j = k + step; j >= 0 && j < x.length && near.length < 2; j += step) if (!excluded.has(j)) near.push(j);
+    if (near.length < 2 || x[near[0]] === x[near[1]]) return Infinity;
+    const slope = (y[near[1]] - y[near[0]]) / (x[near[1]] - x[near[0]]);
+    return Math.abs(y[k] - (y[near[0]] + slope * (x[k] - x[near[0]])));
+  };
+  while (out.length < Math.floor(x.length / 5)) {
+    const d = x.map((_, k) => (excluded.has(k) ? 0 : Math.min(side(k, -1), side(k, 1))));
+    const finite = d.filter((v, k) => !excluded.has(k) && Number.isFinite(v)).sort((a, b) => a - b);
+    if (finite.length === 0) break;
+    const scale = 1.4826 * finite[finite.length >> 1];
+    let worst = -1;
+    for (let k = 0; k < x.length; k++) if (!excluded.has(k) && Number.isFinite(d[k]) && (worst < 0 || d[k] > d[worst])) worst = k;
+    if (worst < 0 || d[worst] <= Math.max(6 * scale, 5 * dt, 2e-3)) break;
+    excluded.add(worst);
+    out.push(worst);
+  }
+  return out;
+}
+
+function windows(t: PickTrace, options: PickOptions) {
+  const dt = t.sampleInterval;
+  const short = Math.max(4, Math.round((options.shortWindow ?? 2e-3) / dt));
+  const long = Math.max(short * 4, Math.round((options.longWindow ?? 20e-3) / dt));
+  const aic = Math.max(16, Math.round((options.aicWindow ?? 6e-3) / dt));
+  return { short, long, aic };
+}
+
+function isDead(t: PickTrace): boolean {
+  if (t.dead) return true;
+  const first = t.data[0];
+  for (let k = 1; k < t.data.length; k++) if (t.data[k] !== first) return false;
+  return true;
+}
+
+/** Picks one trace on its own: STA/LTA trigger, then AIC. */
+export function pickTrace(t: PickTrace, options: PickOptions = {}): TracePick {
+  if (isDead(t)) return { confidence: 0, status: 'dead' };
+  const { short, long, aic } = windows(t, options);
+  const energy = energyPrefix(t.data);
+  // Only samples at or after the shot can hold a first break.
+  const shot = Math.max(0, Math.ceil(-t.delay / t.sampleInterval));
+  const trigger = staLtaTrigger(energy, short, long, options.threshold ?? 4, Math.min(8, Math.max(2, shot)), shot);
+  if (trigger === undefined) return { confidence: 0, status: 'no clear onset' };
+  // The AIC window reaches well past the trigger so that the signal part is not just the rise.
+  const end = Math.min(t.data.length, trigger + 2 * aic);
+  const start = Math.max(0, Math.min(shot, trigger) - long);
+  const found = aicOnset(t.data, start, end);
+  if (found === undefined) return { confidence: 0, status: 'no clear onset' };
+  const onset = refineOnset(t.data, Math.max(found.onset, shot), short, shot);
+  return described(t, onset, energy, short, 'picked');
+}
+
+/**
+ * Moves an AIC onset to where the first arrival leaves zero. AIC marks where the signal becomes
+ * distinguishable from the noise, a few samples into an emergent arrival. A ramp, zero before an
+ * onset k₀ and a·(k − k₀) after it, is fitted by least squares to the samples from two STA
+ * windows before the AIC onset up to where the first arrival first reaches 60 % of its largest
+ * amplitude in the next three STA windows; k₀ is searched on whole samples, then in quarter
+ * samples around the best. For a sine-like onset the ramp errs by under a sample.
+ *
+ * @returns the onset as a fractional sample index, never before `earliest`
+ */
+export function refineOnset(data: Float32Array, onset: number, short: number, earliest: number): number {
+  const limit = Math.min(data.length, onset + 3 * short);
+  let largest = 0;
+  let sign = 1;
+  for (let k = onset; k < limit; k++) {
+    if (Math.abs(data[k]) > largest) { largest = Math.abs(data[k]); sign = Math.sign(data[k]) || 1; }
+  }
+  if (largest === 0) return onset;
+  let reach = onset;
+  while (reach < limit - 1 && sign * data[reach] < 0.6 * largest) reach++;
+  const first = Math.max(earliest, onset - 2 * short);
+  if (reach - first < 6) return onset;
+  const rampRss = (k0: number) => {
+    let su = 0, sux = 0, sxx = 0;
+    for (let k = first; k <= reach; k++) {
+      const v = sign * data[k];
+      sxx += v * v;
+      const u = k > k0 ? k - k0 : 0;
+      su += u * u;
+      sux += u * v;
+    }
+    return su > 0 ? sxx - (sux * sux) / su : sxx;
+  };
+  let best = onset;
+  let bestRss = Infinity;
+  for (let k0 = first; k0 < reach - 2; k0++) {
+    const r = rampRss(k0);
+    if (r < bestRss) { bestRss = r; best = k0; }
+  }
+  for (let step = -1; step <= 1; step += 0.25) {
+    const r = rampRss(best + step);
+    if (r < bestRss) { bestRss = r; best += step; step = -1.25; }
+  }
+  return Math.max(earliest, best);
+}
+
+/** AIC in a window around a predicted time, for a second look. */
+function pickNear(t: PickTrace, predicted: number, halfWidth: number, options: PickOptions): TracePick | undefined {
+  if (isDead(t)) return undefined;
+  const { short } = windows(t, options);
+  const centre = Math.round((predicted - t.delay) / t.sampleInterval);
+  const half = Math.round(halfWidth / t.sampleInterval);
+  const start = Math.max(0, centre - half);
+  const end = Math.min(t.data.length, centre + half);
+  const found = aicOnset(t.data, start, end);
+  if (found === undefined) return undefined;
+  const shot = Math.max(0, Math.ceil(-t.delay / t.sampleInterval));
+  return described(t, refineOnset(t.data, found.onset, short, Math.max(start, shot)), energyPrefix(t.data), short, 'picked');
+}
+
+function described(t: PickTrace, fractionalOnset: number, energy: Float64Array, short: number, status: PickStatus): TracePick {
+  const onset = Math.min(energy.length - 2, Math.max(0, Math.round(fractionalOnset)));
+  const before = Math.max(0, onset - short);
+  const after = Math.min(energy.length - 1, onset + short);
+  const noise = Math.sqrt((energy[onset] - energy[before]) / Math.max(1, onset - before));
+  const signal = Math.sqrt((energy[after] - energy[onset]) / Math.max(1, after - onset));
+  const snr = noise > 0 ? signal / noise : signal > 0 ? 100 : 0;
+  return { time: t.delay + fractionalOnset * t.sampleInterval, confidence: Math.max(0, Math.min(1, 1 - Math.exp(-(snr - 1) / 3))), status, snr };
+}

@@ -1,0 +1,101 @@
+import { basename, extname } from 'node:path';
+import { InputError } from '../core/errors.js';
+import type { Seg2Record } from '../io/seg2/types.js';
+import { bandPass } from './filter.js';
+import { pickRecord, type PickOptions, type PickStatus } from './autoPick.js';
+
+/** A station table: positions along the line and ground elevations, in metres, by station number. */
+export interface Stations {
+  file: string;
+  rows: { station?: number; x: number; elev: number }[];
+}
+
+/** Geometry to use where a record's headers lack it. Lengths in metres. */
+export interface GeometryOptions {
+  sourceX?: number;
+  firstReceiverX?: number;
+  spacing?: number;
+  stations?: Stations;
+}
+
+export interface RecordPickOptions extends GeometryOptions, PickOptions {
+  /** Band-pass corners in Hz before picking (0 = none). */
+  bandPass?: [number, number];
+}
+
+/** One pick row of the first-break table made from a record. */
+export interface PickRow {
+  sourceId: string;
+  sourceX: number;
+  sourceElev?: number;
+  receiverX: number;
+  receiverElev?: number;
+  /** Seconds after the shot; undefined for a trace left unpicked. */
+  time?: number;
+  confidence: number;
+  status: PickStatus;
+  file: string;
+  trace: number;
+}
+
+/** Ground elevation at x from a station table (linear interpolation, end values beyond). */
+export function stationElevation(stations: Stations, x: number): number {
+  const rows = [...stations.rows].sort((a, b) => a.x - b.x);
+  if (x <= rows[0].x) return rows[0].elev;
+  if (x >= rows[rows.length - 1].x) return rows[rows.length - 1].elev;
+  let i = 1;
+  while (rows[i].x < x) i++;
+  const a = rows[i - 1];
+  const b = rows[i];
+  return a.elev + ((b.elev - a.elev) * (x - a.x)) / (b.x - a.x);
+}
+
+function stationX(stations: Stations | undefined, number: number | undefined): number | undefined {
+  if (stations === undefined || number === undefined) return undefined;
+  return stations.rows.find((r) => r.station === number)?.x;
+}
+
+/**
+ * Picks every trace of a record and places it on the line. Positions come from the headers
+ * (SOURCE_LOCATION, RECEIVER_LOCATION; or SOURCE_STATION_NUMBER and RECEIVER_STATION_NUMBER
+ * through the station table), or from the geometry options where the headers lack them (receiver
+ * x = first receiver + (channel − 1) × spacing). Elevations: the third location number, else the
+ * station table, else none.
+ *
+ * @throws InputError naming the file, trace and field when a position is missing and not given
+ */
+export function pickSeg2(record: Seg2Record, options: RecordPickOptions = {}): PickRow[] {
+  const sourceId = basename(record.file, extname(record.file));
+  const geometry = record.traces.map((t) => {
+    const sourceX = options.sourceX ?? t.sourceLocation?.[0] ?? stationX(options.stations, t.sourceStation);
+    if (sourceX === undefined) {
+      throw new InputError({ file: record.file, trace: t.index, column: 'SOURCE_LOCATION' },
+        'no SOURCE_LOCATION (or SOURCE_STATION_NUMBER in a station table) in the header; give the source position with --source-x, or a --stations table');
+    }
+    const channel = t.channel ?? t.index;
+    const fromLayout = options.firstReceiverX !== undefined && options.spacing !== undefined ? options.firstReceiverX + (channel - 1) * options.spacing : undefined;
+    const receiverX = fromLayout ?? t.receiverLocation?.[0] ?? stationX(options.stations, t.receiverStation);
+    if (receiverX === undefined) {
+      throw new InputError({ file: record.file, trace: t.index, column: 'RECEIVER_LOCATION' },
+        'no RECEIVER_LOCATION (or RECEIVER_STATION_NUMBER in a station table) in the header; give --first-receiver and --spacing, or a --stations table');
+    }
+    const elevation = (location: number[] | undefined, x: number) => location?.[2] ?? (options.stations ? stationElevation(options.stations, x) : undefined);
+    return { sourceX, receiverX, sourceElev: elevation(options.sourceX === undefined ? t.sourceLocation : undefined, sourceX), receiverElev: elevation(fromLayout === undefined ? t.receiverLocation : undefined, receiverX) };
+  });
+  const picks = pickRecord(record.traces.map((t, i) => ({
+    data: options.bandPass ? bandPass(t.data, t.sampleInterval, options.bandPass[0], options.bandPass[1]) : t.data,
+    sampleInterval: t.sampleInterval,
+    delay: t.delay,
+    offset: geometry[i].receiverX - geometry[i].sourceX,
+    dead: t.dead,
+  })), options);
+  return record.traces.map((t, i) => ({
+    sourceId,
+    ...geometry[i],
+    time: picks[i].time,
+    confidence: picks[i].confidence,
+    status: picks[i].status,
+    file: record.file,
+    trace: t.index,
+  }));
+}
