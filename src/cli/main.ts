@@ -120,7 +120,10 @@ function parse(args: string[], options: NonNullable<ParseArgsConfig['options']>)
   try {
     return parseArgs({ args, options, allowPositionals: true, strict: true });
   } catch (error) {
-    throw new InputError({}, `${(error as Error).message.replace(/\. To specify.*$/s, '')}; see hammerline --help`);
+    const message = (error as Error).message;
+    const ambiguous = /Option '(--[\w-]+)' argument is ambiguous/.exec(message);
+    if (ambiguous) throw new InputError({}, `${ambiguous[1]}: a value starting with "-" must be joined with "=", for example ${ambiguous[1]}=-6`);
+    throw new InputError({}, `${message.split('\n')[0].replace(/\. To specify.*$/s, '')}; see hammerline --help`);
   }
 }
 

@@ -1,6 +1,6 @@
 import { segmentedRegression } from '../fit/segmentedRegression.js';
 import { aicOnset } from './aic.js';
-import { energyPrefix, staLtaTrigger } from './staLta.js';
+import { staLtaTriggerOn } from './staLta.js';
 
 /** A trace to pick: samples, time axis, and its offset from the source. */
 export interface PickTrace {
@@ -136,10 +136,9 @@ function isDead(t: PickTrace): boolean {
 export function pickTrace(t: PickTrace, options: PickOptions = {}): TracePick {
   if (isDead(t)) return { confidence: 0, status: 'dead' };
   const { short, long, aic } = windows(t, options);
-  const energy = energyPrefix(t.data);
   // Only samples at or after the shot can hold a first break.
   const shot = Math.max(0, Math.ceil(-t.delay / t.sampleInterval));
-  const trigger = staLtaTrigger(energy, short, long, options.threshold ?? 4, Math.min(8, Math.max(2, shot)), shot);
+  const trigger = staLtaTriggerOn(t.data, short, long, options.threshold ?? 4, Math.min(8, Math.max(2, shot)), shot);
   if (trigger === undefined) return { confidence: 0, status: 'no clear onset' };
   // The AIC window reaches well past the trigger so that the signal part is not just the rise.
   const end = Math.min(t.data.length, trigger + 2 * aic);
@@ -147,7 +146,7 @@ export function pickTrace(t: PickTrace, options: PickOptions = {}): TracePick {
   const found = aicOnset(t.data, start, end);
   if (found === undefined) return { confidence: 0, status: 'no clear onset' };
   const onset = refineOnset(t.data, Math.max(found.onset, shot), short, shot);
-  return described(t, onset, energy, short, 'picked');
+  return described(t, onset, short, 'picked');
 }
 
 /**
@@ -207,15 +206,19 @@ function pickNear(t: PickTrace, predicted: number, halfWidth: number, options: P
   const found = aicOnset(t.data, start, end);
   if (found === undefined) return undefined;
   const shot = Math.max(0, Math.ceil(-t.delay / t.sampleInterval));
-  return described(t, refineOnset(t.data, found.onset, short, Math.max(start, shot)), energyPrefix(t.data), short, 'picked');
+  return described(t, refineOnset(t.data, found.onset, short, Math.max(start, shot)), short, 'picked');
 }
 
-function described(t: PickTrace, fractionalOnset: number, energy: Float64Array, short: number, status: PickStatus): TracePick {
-  const onset = Math.min(energy.length - 2, Math.max(0, Math.round(fractionalOnset)));
-  const before = Math.max(0, onset - short);
-  const after = Math.min(energy.length - 1, onset + short);
-  const noise = Math.sqrt((energy[onset] - energy[before]) / Math.max(1, onset - before));
-  const signal = Math.sqrt((energy[after] - energy[onset]) / Math.max(1, after - onset));
+function described(t: PickTrace, fractionalOnset: number, short: number, status: PickStatus): TracePick {
+  const n = t.data.length;
+  const onset = Math.min(n - 1, Math.max(0, Math.round(fractionalOnset)));
+  const meanSquare = (from: number, to: number) => {
+    let sum = 0;
+    for (let k = from; k < to; k++) sum += t.data[k] * t.data[k];
+    return sum / Math.max(1, to - from);
+  };
+  const noise = Math.sqrt(meanSquare(Math.max(0, onset - short), onset));
+  const signal = Math.sqrt(meanSquare(onset, Math.min(n, onset + short)));
   const snr = noise > 0 ? signal / noise : signal > 0 ? 100 : 0;
   return { time: t.delay + fractionalOnset * t.sampleInterval, confidence: Math.max(0, Math.min(1, 1 - Math.exp(-(snr - 1) / 3))), status, snr };
 }

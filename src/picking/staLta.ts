@@ -18,6 +18,35 @@ export function staLtaTrigger(energy: Float64Array, short: number, long: number,
   return undefined;
 }
 
+/**
+ * The same trigger computed on the samples with running window sums: no pass over the trace
+ * beyond the trigger, no allocation (the fast path for picking whole records).
+ */
+export function staLtaTriggerOn(data: Float32Array, short: number, long: number, threshold: number, minimumNoise: number, from = 0): number | undefined {
+  const n = data.length;
+  const start = Math.max(from, minimumNoise);
+  if (start + short > n) return undefined;
+  let noiseSum = 0;
+  const lo0 = Math.max(0, start - long);
+  for (let j = lo0; j < start; j++) noiseSum += data[j] * data[j];
+  let signalSum = 0;
+  for (let j = start; j < start + short; j++) signalSum += data[j] * data[j];
+  for (let k = start; k + short <= n; k++) {
+    const lo = Math.max(0, k - long);
+    const noise = noiseSum / (k - lo);
+    const signal = signalSum / short;
+    if (signal > threshold * noise && signal > 0) return k;
+    // Slide: sample k joins the noise window (and the oldest leaves it once the window is full);
+    // sample k + short joins the signal window and sample k leaves it.
+    const v = data[k];
+    noiseSum += v * v;
+    if (k - long >= 0) noiseSum -= data[k - long] * data[k - long];
+    signalSum -= v * v;
+    if (k + short < n) signalSum += data[k + short] * data[k + short];
+  }
+  return undefined;
+}
+
 /** Prefix sums of squared samples, over the first `count` samples. */
 export function energyPrefix(data: Float32Array, count = data.length): Float64Array {
   const out = new Float64Array(count + 1);

@@ -182,3 +182,63 @@ describe('hammerline site and the site section of interpret', () => {
     expect(swapped.stderr).toMatch(/not slower than Vp/);
   });
 });
+
+describe('hammerline pick, records, and interpret of SEG-2 records', () => {
+  const records = [1, 2, 3, 4, 5, 6, 7].map((k) => `survey-examples/pump-station/records/S${k}.seg2`);
+
+  it('records summarises headers and geometry, and --json gives the same as data', () => {
+    const text = run(['records', records[2]]);
+    expect(text.code).toBe(0);
+    expect(text.stdout).toMatch(/48 traces, format code 2, 600 samples at 0\.25 ms, first sample at -5 ms/);
+    expect(text.stdout).toMatch(/dead traces: 17/);
+    const doc = JSON.parse(run(['records', records[2], '--json']).stdout);
+    expect(doc.source_x_m).toEqual([23]);
+    expect(doc.receiver_x_m).toEqual({ first: 0, last: 94, count: 48 });
+  });
+
+  it('pick writes the first-break table with confidence, source file and trace, and reports the unpicked dead trace', () => {
+    const { code, stdout, stderr } = run(['pick', records[2]]);
+    expect(code).toBe(0);
+    const [header, ...rows] = stdout.trim().split('\n');
+    expect(header).toBe('source_id,source_x,source_elev,receiver_x,receiver_elev,time_ms,confidence,source_file,trace');
+    expect(rows).toHaveLength(47);
+    expect(stderr).toMatch(/S3\.seg2: 1 trace not picked \(dead: 17\)/);
+  });
+
+  it('interpret of the seven invented SEG-2 records finds the pump-station model (450 over 2600 m/s, rock 4.5 to 6.5 m)', () => {
+    // The true model of survey-examples/pump-station/README.md; the records were made from it with
+    // the independent forward model, so this checks picking and interpretation end to end.
+    const { code, stdout } = run(['interpret', ...records, '--json', '-q']);
+    expect(code).toBe(0);
+    const doc = JSON.parse(stdout);
+    expect(doc.layers.map((l: { velocity_mps: number }) => l.velocity_mps)).toEqual([expect.closeTo(450, -1.5), expect.closeTo(2600, -2)]);
+    const points = doc.refractors[0].points as { x_m: number; depth_m: number }[];
+    const mae = points.reduce((a, p) => a + Math.abs(p.depth_m - (4.5 + (2 * p.x_m) / 94)), 0) / points.length;
+    expect(mae).toBeLessThan(0.3);
+  });
+
+  it('pick names file, trace and field when geometry is missing, and --first-receiver/--spacing and --stations supply it', () => {
+    const bytes = readFileSync(records[0]);
+    const dir = mkdtempSync(join(tmpdir(), 'hammerline-'));
+    // A copy of the record with its location keywords renamed, so that the headers carry no geometry.
+    const stripped = Buffer.from(bytes.toString('latin1').replace(/SOURCE_LOCATION/g, 'SOURCE_LOCATIOX').replace(/RECEIVER_LOCATION/g, 'RECEIVER_LOCATIOX'), 'latin1');
+    const file = join(dir, 'bare.seg2');
+    writeFileSync(file, stripped);
+    const missing = run(['pick', file]);
+    expect(missing.code).toBe(2);
+    expect(missing.stderr).toMatch(/bare\.seg2, trace 1, column SOURCE_LOCATION: no SOURCE_LOCATION/);
+    const stations = join(dir, 'stations.csv');
+    writeFileSync(stations, 'station,x,elev\n' + Array.from({ length: 48 }, (_, i) => `${101 + i},${2 * i},${(212 - 0.03 * i).toFixed(2)}`).join('\n') + '\n');
+    const given = run(['pick', file, '--source-x=-6', '--first-receiver', '0', '--spacing', '2', '--stations', stations]);
+    expect(run(['pick', file, '--source-x', '-6']).stderr).toMatch(/--source-x: a value starting with "-" must be joined with "="/);
+    expect(given.code).toBe(0);
+    const second = given.stdout.trim().split('\n').slice(1).map((r) => r.split(',')).find((r) => r[8] === '2')!;
+    // Channel 2 is at x = 0 + (2 - 1) × 2 = 2 m; its elevation comes from the station table
+    // (212 - 0.03 = 211.97 m), and the source's from the table's end value beyond x = 0.
+    expect(second.slice(1, 5)).toEqual(['-6', '212', '2', '211.97']);
+  });
+
+  it('interpret refuses a mix of SEG-2 records and first-break tables', () => {
+    expect(run(['interpret', records[0], example]).stderr).toMatch(/is a first-break table given with SEG-2 records/);
+  });
+});
