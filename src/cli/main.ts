@@ -16,7 +16,7 @@ import { readStations } from '../io/stationsCsv.js';
 import { pickSeg2, type PickRow, type RecordPickOptions } from '../picking/recordPicks.js';
 import { checkShearSlowerThanP } from '../site/fromInterpretation.js';
 import { assessSite, type SiteInput, type SiteOptions } from '../site/siteAssessment.js';
-import { fromMetres } from '../core/units.js';
+import { fromMetres, toMetres } from '../core/units.js';
 import { keyValue, numberOption } from './args.js';
 import { processIo, type CliIo } from './io.js';
 
@@ -168,7 +168,6 @@ function interpretCommand(args: string[], io: CliIo): number {
     const log = new WarningLog();
     pLine = interpret(readFirstBreaks(readInput(io, file), file, log, { lengthUnit: unit, wave: 'P' }), { ...options, wave: 'P', vsFromVp: undefined }, log);
   }
-  const toMetres = (v: number) => (unit === 'ft' ? v * 0.3048 : v);
   for (const text of (values.segments as string[] | undefined) ?? []) {
     options.segments ??= {};
     if (!text.includes('=')) options.segments['*'] = numberOption('segments', text, 'a segment count from 1 to 4');
@@ -180,7 +179,7 @@ function interpretCommand(args: string[], io: CliIo): number {
   for (const text of (values.breakpoint as string[] | undefined) ?? []) {
     options.breakpoints ??= {};
     const [name, list] = keyValue('breakpoint', text);
-    options.breakpoints[name] = list.split(',').map((v) => toMetres(numberOption('breakpoint', v, `an offset in ${unit === 'ft' ? 'feet' : 'metres'}`)));
+    options.breakpoints[name] = list.split(',').map((v) => toMetres(numberOption('breakpoint', v, `an offset in ${unit === 'ft' ? 'feet' : 'metres'}`), unit));
   }
   if (values['max-segments'] !== undefined) options.maxSegments = numberOption('max-segments', values['max-segments'] as string, 'a count from 1 to 4');
 
@@ -251,7 +250,7 @@ function isSeg2(io: CliIo, file: string): boolean {
 }
 
 function recordOptions(values: Record<string, unknown>, unit: LengthUnit, io: CliIo): RecordPickOptions {
-  const length = (name: string) => (values[name] === undefined ? undefined : toMetresUnit(numberOption(name, values[name] as string, `a position in ${unit === 'ft' ? 'feet' : 'metres'}`), unit));
+  const length = (name: string) => (values[name] === undefined ? undefined : toMetres(numberOption(name, values[name] as string, `a position in ${unit === 'ft' ? 'feet' : 'metres'}`), unit));
   const options: RecordPickOptions = { sourceX: length('source-x'), firstReceiverX: length('first-receiver'), spacing: length('spacing') };
   if ((options.firstReceiverX === undefined) !== (options.spacing === undefined)) throw new InputError({}, 'give --first-receiver and --spacing together');
   if (values.stations !== undefined) options.stations = readStations(readInput(io, values.stations as string), values.stations as string, unit);
@@ -261,10 +260,6 @@ function recordOptions(values: Record<string, unknown>, unit: LengthUnit, io: Cl
     options.bandPass = [corners[0], corners[1]];
   }
   return options;
-}
-
-function toMetresUnit(value: number, unit: LengthUnit): number {
-  return unit === 'ft' ? value * 0.3048 : value;
 }
 
 function readRecord(io: CliIo, file: string): Seg2Record {
@@ -388,7 +383,7 @@ function siteCommand(args: string[], io: CliIo): number {
   }
   if (positionals.length > 0) throw new InputError({}, `site takes a hand-entered profile (--layer, --halfspace), not files; for a line use: hammerline interpret ${positionals[0]}`);
   const unit = lengthUnitOption(values.units as string | undefined);
-  const toSi = (v: number) => (unit === 'ft' ? v * 0.3048 : v);
+  const toSi = (v: number) => toMetres(v, unit);
   const layers = ((values.layer as string[] | undefined) ?? []).map((text) => {
     const parts = text.split(':');
     if (parts.length < 2 || parts.length > 3) throw new InputError({}, `--layer ${text}: expected THICKNESS:VELOCITY or THICKNESS:VELOCITY:SE, for example 4:185`);

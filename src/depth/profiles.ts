@@ -1,3 +1,4 @@
+import { linearAt } from '../core/interpolate.js';
 import { median } from '../core/stats.js';
 import type { BranchFit, Layer, Refractor, RefractorPoint } from '../core/types.js';
 import type { WarningLog } from '../core/warnings.js';
@@ -185,16 +186,9 @@ function hidden(fits: BranchFit[], layers: Layer[], n: number): HiddenLayerLimit
 
 /** Ground elevation along the line from the receivers (linear interpolation, end values beyond). */
 function groundElevation(receivers: { x: number; elev: number }[]): (x: number) => number {
-  return (x) => {
-    if (x <= receivers[0].x) return receivers[0].elev;
-    const last = receivers[receivers.length - 1];
-    if (x >= last.x) return last.elev;
-    let i = 1;
-    while (receivers[i].x < x) i++;
-    const a = receivers[i - 1];
-    const b = receivers[i];
-    return a.elev + ((b.elev - a.elev) * (x - a.x)) / (b.x - a.x);
-  };
+  const xs = receivers.map((r) => r.x);
+  const elevations = receivers.map((r) => r.elev);
+  return (x) => linearAt(xs, elevations, x);
 }
 
 const round = (v: number, d: number) => Number(v.toFixed(d));

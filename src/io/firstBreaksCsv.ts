@@ -1,5 +1,6 @@
 import Papa from 'papaparse';
 import { InputError, InputErrors } from '../core/errors.js';
+import { linearAt } from '../core/interpolate.js';
 import type { FirstBreak, FirstBreakTable, Wave } from '../core/types.js';
 import { toMetres, type LengthUnit } from '../core/units.js';
 import type { WarningLog } from '../core/warnings.js';
@@ -266,14 +267,8 @@ function groundFromReceivers(picks: FirstBreak[]): (x: number) => number {
   const byX = new Map<number, number>();
   for (const p of picks) byX.set(p.receiverX, p.receiverElev);
   const xs = [...byX.keys()].sort((a, b) => a - b);
-  return (x: number) => {
-    if (x <= xs[0]) return byX.get(xs[0])!;
-    if (x >= xs[xs.length - 1]) return byX.get(xs[xs.length - 1])!;
-    let i = 1;
-    while (xs[i] < x) i++;
-    const t = (x - xs[i - 1]) / (xs[i] - xs[i - 1]);
-    return byX.get(xs[i - 1])! * (1 - t) + byX.get(xs[i])! * t;
-  };
+  const elevations = xs.map((x) => byX.get(x)!);
+  return (x: number) => linearAt(xs, elevations, x);
 }
 
 function checkDuplicates(picks: FirstBreak[], file: string): void {

@@ -1,5 +1,6 @@
 import { basename, extname } from 'node:path';
 import { InputError } from '../core/errors.js';
+import { linearAt } from '../core/interpolate.js';
 import type { Seg2Record } from '../io/seg2/types.js';
 import { bandPass } from './filter.js';
 import { pickRecord, type PickOptions, type PickStatus } from './autoPick.js';
@@ -41,13 +42,7 @@ export interface PickRow {
 /** Ground elevation at x from a station table (linear interpolation, end values beyond). */
 export function stationElevation(stations: Stations, x: number): number {
   const rows = [...stations.rows].sort((a, b) => a.x - b.x);
-  if (x <= rows[0].x) return rows[0].elev;
-  if (x >= rows[rows.length - 1].x) return rows[rows.length - 1].elev;
-  let i = 1;
-  while (rows[i].x < x) i++;
-  const a = rows[i - 1];
-  const b = rows[i];
-  return a.elev + ((b.elev - a.elev) * (x - a.x)) / (b.x - a.x);
+  return linearAt(rows.map((r) => r.x), rows.map((r) => r.elev), x);
 }
 
 function stationX(stations: Stations | undefined, number: number | undefined): number | undefined {
