@@ -81,7 +81,17 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     for (let round = 0; round < 3; round++) {
       const scratch = new WarningLog();
       const trial = layerVelocities(fits, assignLayers(fits, spacing, scratch), scratch);
-      const split = trial.findIndex((l, i) => i > 0 && l.velocity < MIN_VELOCITY_CONTRAST * trial[i - 1].velocity);
+      let split = trial.findIndex((l, i) => i > 0 && l.velocity < MIN_VELOCITY_CONTRAST * trial[i - 1].velocity);
+      // A deepest layer seen by one branch alone, from one side, although other branches on that
+      // side reach as far, is a bend of that branch (off-end branches included).
+      const deepest = trial[trial.length - 1];
+      const loneFits = deepest ? fits.filter((f) => f.segments.some((sg) => sg.layer === deepest.index)) : [];
+      let lone = false;
+      if (split < 0 && trial.length > 2 && !deepest.reversed && loneFits.length === 1) {
+        const segment = loneFits[0].segments.find((sg) => sg.layer === deepest.index)!;
+        lone = fits.some((f) => f !== loneFits[0] && f.branch.side === loneFits[0].branch.side && f.branch.offsets[f.branch.offsets.length - 1] >= segment.firstOffset + 2 * spacing);
+        if (lone) split = trial.length - 1;
+      }
       if (split < 0) break;
       const layer = trial[split].index;
       const showing = fits.filter((f) => f.chosenBy !== 'user' && f.segments.length > 1 && f.segments.some((sg) => sg.layer === layer));
@@ -101,7 +111,10 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
       attemptLog.items.push(...kept, ...trialLog.items);
       fits = merged;
       const names = showing.map((f) => branchName(f.branch)).join(', ');
-      if (trial[split].velocity <= trial[split - 1].velocity) {
+      if (lone) {
+        attemptLog.add('layer-dropped',
+          `layer ${layer} (${Math.round(trial[split].velocity)} m/s) is seen by ${names} alone, from one side, although other branches on that side reach as far: taken for a bend of that branch, fitted with at most one segment fewer`);
+      } else if (trial[split].velocity <= trial[split - 1].velocity) {
         attemptLog.add('velocity-inversion',
           `layer ${layer} (${Math.round(trial[split].velocity)} m/s) is not faster than layer ${layer - 1} (${Math.round(trial[split - 1].velocity)} m/s): a layer slower than the one above sends back no head wave, so these segments are bends of the branches (a lateral change, an irregular refractor or mispicks), not a layer; ${names} fitted with at most one segment fewer. Check the picks there`,
           { layer });
@@ -188,6 +201,8 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
 
 /** Layers down to the first one not faster than the layer above (no depths below an inversion). */
 function usableLayers(layers: Layer[]): Layer[] {
+  // Without the top layer's velocity no depth can be computed (see the no-direct-wave warning).
+  if (layers.length === 0 || layers[0].index !== 1) return [];
   const usable: Layer[] = [];
   for (const layer of layers) {
     if (usable.length > 0 && layer.velocity <= usable[usable.length - 1].velocity) break;

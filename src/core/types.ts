@@ -116,6 +116,8 @@ export interface Layer {
   segmentCount: number;
   /** True when both forward and reverse branches see the layer, so its true velocity is known. */
   reversed: boolean;
+  /** Layer 1 only: true when its velocity was fitted through the origin (the direct-wave lines pass through it). */
+  throughOrigin?: boolean;
 }
 
 /** A point on a refractor. Depth is vertical, positive down, below the ground at x. */

@@ -11,6 +11,14 @@ import type { WarningLog } from '../core/warnings.js';
  */
 const CONSISTENCY_RATIO = 1.4;
 
+/**
+ * Intercept time above which a first segment is not the direct wave: a direct wave passes through
+ * the origin, give or take a trigger delay of a millisecond or so (common practice), while a head
+ * wave's intercept is twice the delay time to the refractor, several milliseconds for any
+ * refractor a metre or more down.
+ */
+const DIRECT_INTERCEPT_LIMIT = 3e-3;
+
 /** A segment faster than the deepest layer seen near the sources by this factor starts a new layer. */
 const NEW_LAYER_RATIO = 1.25;
 
@@ -26,14 +34,33 @@ const NEW_LAYER_RATIO = 1.25;
  */
 export function assignLayers(fits: BranchFit[], spacing: number, warnings: WarningLog): number {
   const near = (fit: BranchFit) => fit.branch.offsets.find((o) => o > 0)! <= 2.01 * spacing;
-  const reference = fits.filter(near);
+  // A near-source branch whose first segment does not start near time zero has no direct-wave
+  // segment (too few picks before the crossover): its segments are refracted from the first.
+  const headFirst = (fit: BranchFit) => {
+    const first = fit.segments[0];
+    return first.intercept > Math.max(DIRECT_INTERCEPT_LIMIT, 5 * first.interceptSe);
+  };
+  const reference = fits.filter((f) => near(f) && !headFirst(f));
+  const lacking = fits.filter((f) => near(f) && headFirst(f));
+  if (reference.length === 0 && lacking.length > 0) {
+    for (const f of fits) for (const segment of f.segments) segment.layer += 1;
+    warnings.add('no-direct-wave',
+      `no branch starting at its source has a direct-wave segment: every first segment starts well after time zero (intercepts ${lacking.map((f) => (f.segments[0].intercept * 1e3).toFixed(1)).join(', ')} ms), so the top-layer velocity is unknown and no depth can be computed. Pick geophones closer to the sources (at least three before the crossover distance)`,
+      { layer: 1 });
+    return Math.max(...fits.map((f) => f.segments.length)) + 1;
+  }
+  for (const f of lacking) {
+    for (const segment of f.segments) segment.layer += 1;
+    warnings.add('direct-wave-unsampled',
+      `${f.branch.sourceId}:${f.branch.side} branch starts with a segment of intercept ${(f.segments[0].intercept * 1e3).toFixed(1)} ms, not a direct wave (too few picks before the crossover); its segments are taken as refracted from the first`);
+  }
   const base = reference.length > 0 ? reference : fits;
   let layerCount = Math.max(...base.map((f) => f.segments.length));
   // Up-dip and down-dip apparent velocities differ, so each side is matched against its own side.
   const medianSlowness = (members: BranchFit[], k: number) =>
     median(members.flatMap((f) => f.segments.filter((s) => s.layer === k).map((s) => s.slowness)));
   for (const fit of fits) {
-    if (base.includes(fit)) continue;
+    if (base.includes(fit) || lacking.includes(fit)) continue;
     const sameSide = base.filter((f) => f.branch.side === fit.branch.side);
     const references = sameSide.length > 0 ? sameSide : base;
     const layerSlowness: number[] = [];
@@ -116,14 +143,20 @@ function matchInOrder(slowness: number[], layerSlowness: number[], layerCount: n
  */
 export function layerVelocities(fits: BranchFit[], layerCount: number, warnings: WarningLog): Layer[] {
   const layers: Layer[] = [];
-  const direct = fits.flatMap((f) => f.segments.filter((s) => s.layer === 1).map((s) => directSlowness(f, s)));
+  const directSegments = fits.flatMap((f) => f.segments.filter((s) => s.layer === 1).map((s) => ({ f, s })));
+  // Where the direct-wave lines pass through the origin within their errors, the origin is data
+  // too (the shot is at time zero): their slopes are refitted through it, which steadies V1 from
+  // the few picks a thin top layer leaves (common practice).
+  const meanIntercept = weightedMean(directSegments.map(({ s }) => s.intercept), directSegments.map(({ s }) => s.interceptSe));
+  const throughOrigin = meanIntercept !== undefined && Math.abs(meanIntercept.mean) < Math.max(2 * meanIntercept.se, 0.2e-3);
+  const direct = directSegments.map(({ f, s }) => (throughOrigin ? originSlowness(f, s) : directSlowness(f, s)));
   const v1Fit = weightedMean(direct.map((d) => d.slowness), direct.map((d) => d.se));
   let v1: number | undefined;
   let v1Se = 0;
   if (v1Fit !== undefined) {
     v1 = 1 / v1Fit.mean;
     v1Se = v1Fit.se / v1Fit.mean ** 2;
-    layers.push({ index: 1, velocity: v1, velocitySe: v1Se, segmentCount: direct.length, reversed: hasBothSides(fits, 1) });
+    layers.push({ index: 1, velocity: v1, velocitySe: v1Se, segmentCount: direct.length, reversed: hasBothSides(fits, 1), throughOrigin });
   }
   for (let k = v1 === undefined ? 1 : 2; k <= layerCount; k++) {
     const side = (name: 'forward' | 'reverse') => {
@@ -190,4 +223,17 @@ function directSlowness(fit: BranchFit, segment: Segment): { slowness: number; s
   const mean = d.reduce((a, b) => a + b, 0) / d.length;
   const sxx = d.reduce((a, b) => a + (b - mean) ** 2, 0);
   return { slowness: line.slope, se: sxx > 0 ? fit.residualSd / Math.sqrt(sxx) : Infinity };
+}
+
+/** Direct-wave slowness of one segment fitted through the origin against straight-line distance: s = Σ d t / Σ d². */
+function originSlowness(fit: BranchFit, segment: Segment): { slowness: number; se: number } {
+  let sdt = 0;
+  let sdd = 0;
+  for (let i = segment.start; i < segment.end; i++) {
+    if (fit.outlierRows.includes(fit.branch.picks[i].row)) continue;
+    const d = fit.branch.distances[i];
+    sdt += d * fit.branch.times[i];
+    sdd += d * d;
+  }
+  return { slowness: sdt / sdd, se: sdd > 0 ? fit.residualSd / Math.sqrt(sdd) : Infinity };
 }

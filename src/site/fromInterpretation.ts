@@ -21,6 +21,8 @@ export interface VsFromVpOptions {
 export function siteInputFromInterpretation(
   result: Pick<Interpretation, 'file' | 'wave' | 'layers' | 'refractors'>, receiverXs: number[], vsFromVp: VsFromVpOptions = {},
 ): SiteInput | undefined {
+  // Without the top layer (no direct wave) there is no profile from the surface to average.
+  if (result.layers[0]?.index !== 1) return undefined;
   const layers = result.layers.slice(0, result.refractors.length + 1);
   let velocities = layers.map((l) => l.velocity);
   let velocitySes = layers.map((l) => l.velocitySe);

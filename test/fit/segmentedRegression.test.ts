@@ -83,3 +83,15 @@ describe('interpret and velocity inversions', () => {
     expect(log.withCode('water-table')[0].message).toMatch(/may be the water table/);
   });
 });
+
+describe('interpret without a sampled direct wave', () => {
+  it('interpret says the top-layer velocity is unknown and gives no depth when no branch has a direct-wave segment', () => {
+    // 5 m geophone spacing over rock at 2 m (500 over 2500 m/s): the crossover, 2h·sqrt((V2+V1)/(V2−V1)) =
+    // 4·1.22 = 4.9 m (Telford et al. 1990, eq. 4.29, by hand), comes before the first geophone.
+    const time = (s: number, r: number) => { const d = Math.abs(r - s); return Math.min(d / 500, d / 2500 + (2 * 2 * Math.sqrt(1 - 0.04)) / 500); };
+    const { result, log } = interpretCsv(csvFrom([-2.5, 117.5], range(24, 5), time));
+    expect(log.withCode('no-direct-wave')[0].message).toMatch(/top-layer velocity is unknown and no depth can be computed/);
+    expect(result.refractors).toHaveLength(0);
+    expect(result.layers.some((l) => l.index === 1)).toBe(false);
+  });
+});
