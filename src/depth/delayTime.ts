@@ -62,23 +62,26 @@ export function delayTime(curves: HeadCurve[], refractor: number, refractorVeloc
     ];
     rows.push({ entries, value: 0, weight: TIE_WEIGHT });
   }
-  const normal = Matrix.zeros(unknowns, unknowns);
-  const rhs = Matrix.zeros(unknowns, 1);
+  // Normal equations in plain arrays (each pick touches three unknowns), then one matrix for Cholesky.
+  const plain = new Float64Array(unknowns * unknowns);
+  const rhsPlain = new Float64Array(unknowns);
   for (const row of rows) {
     const w = row.weight * row.weight;
     for (const [i, a] of row.entries) {
-      rhs.set(i, 0, rhs.get(i, 0) + w * a * row.value);
-      for (const [j, b] of row.entries) normal.set(i, j, normal.get(i, j) + w * a * b);
+      rhsPlain[i] += w * a * row.value;
+      for (const [j, b] of row.entries) plain[i * unknowns + j] += w * a * b;
     }
   }
   // Sums taken in different orders leave the two triangles a rounding apart; make them equal.
   for (let i = 0; i < unknowns; i++) {
     for (let j = 0; j < i; j++) {
-      const mean = (normal.get(i, j) + normal.get(j, i)) / 2;
-      normal.set(i, j, mean);
-      normal.set(j, i, mean);
+      const mean = (plain[i * unknowns + j] + plain[j * unknowns + i]) / 2;
+      plain[i * unknowns + j] = mean;
+      plain[j * unknowns + i] = mean;
     }
   }
+  const normal = new Matrix(Array.from({ length: unknowns }, (_, i) => Array.from(plain.subarray(i * unknowns, (i + 1) * unknowns))));
+  const rhs = Matrix.columnVector(Array.from(rhsPlain));
   let cholesky = new CholeskyDecomposition(normal);
   if (!cholesky.isPositiveDefinite()) {
     // A part of the line tied to no source: a faint pull of every delay towards zero fixes its constant.
