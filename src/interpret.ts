@@ -6,6 +6,8 @@ import { interceptTimeDepths } from './depth/interceptTime.js';
 import { DISAGREE_FRACTION, DISAGREE_METRES, refractorProfiles, type RefractorMethods } from './depth/profiles.js';
 import { reciprocalChecks, reciprocalTolerance, type ReciprocalCheck } from './depth/reciprocal.js';
 import { splitBranches } from './fit/branches.js';
+import { forwardCheck, type ForwardCheck } from './forward/forwardCheck.js';
+import { linearAt } from './core/interpolate.js';
 import { branchName, fitBranches, type BranchChoices } from './fit/fitBranches.js';
 import { staticsCorrectedFits } from './fit/statics.js';
 import { MIN_VELOCITY_CONTRAST } from './fit/segmentedRegression.js';
@@ -13,7 +15,7 @@ import { assignLayers, layerVelocities } from './fit/layers.js';
 import { siteInputFromInterpretation, type VsFromVpOptions } from './site/fromInterpretation.js';
 import { assessSite, type SiteAssessment, type SiteOptions } from './site/siteAssessment.js';
 
-export const VERSION = '0.4.0';
+export const VERSION = '0.5.0';
 
 /** Warnings that show a fit took bends of the branches for layers (see staticsCorrectedFits). */
 const IRREGULAR = new Set(['apparent-velocity-decrease', 'layer-consistency', 'unreversed-layer', 'velocity-inversion', 'layer-merged']);
@@ -35,6 +37,8 @@ export interface InterpretationResult extends Interpretation {
   cautions: Caution[];
   /** Reciprocal-time check of every pair of sources whose branches reach each other. */
   reciprocal: ReciprocalCheck[];
+  /** Picks against first arrivals computed through the interpreted section, when there is one. */
+  forward?: ForwardCheck;
   /** Vs30 and site classes: for S lines, and for P lines given a Poisson's ratio or Vp/Vs. */
   site?: SiteAssessment;
 }
@@ -162,6 +166,15 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   const pickNoise = lineFitRms(fits);
   const reciprocal = reciprocalChecks(fits, pickNoise, log);
   const refractors: RefractorMethods[] = refractorProfiles({ fits, layers: usable, interceptPoints: intercept, receivers, spacing, pickNoise }, log);
+  const groundXs = receivers.map((r) => r.x);
+  const receiverElevs = receivers.map((r) => r.elev);
+  const ground = (x: number) => linearAt(groundXs, receiverElevs, x);
+  const forward = forwardCheck(fits, usable, refractors, ground, spacing);
+  // On a sound interpretation the section fits the picks to 1.2 to 1.6 times the line-fit RMS
+  // (measured on forward-model lines); twice it, and 0.3 ms more, is a misfit.
+  if (forward !== undefined && forward.rms > Math.max(2 * pickNoise, pickNoise + 0.3e-3)) {
+    log.add('forward-misfit', `first arrivals computed through the interpreted section differ from the picks by ${(forward.rms * 1e3).toFixed(2)} ms RMS (the line fits leave ${(pickNoise * 1e3).toFixed(2)} ms), worst ${(forward.worst.difference * 1e3).toFixed(1)} ms for source ${forward.worst.sourceId} at x = ${forward.worst.receiverX} m: the section does not explain the picks well; look for a missed layer, a wrong segment choice or a lateral change`);
+  }
   for (const r of refractors) {
     if (r.hiddenLayer === undefined) continue;
     const h = r.hiddenLayer;
@@ -193,6 +206,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     history,
     fitRmsSeconds: pickNoise,
     reciprocal,
+    forward,
     picksUsed: used,
     picksTotal: table.picks.length,
     site,

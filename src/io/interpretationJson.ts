@@ -82,6 +82,8 @@ export function interpretationJson(result: InterpretationResult, extra: Record<s
       fit_rms_ms: round(result.fitRmsSeconds * 1e3, 3),
       picks_used: result.picksUsed,
       picks_total: result.picksTotal,
+      forward_rms_ms: result.forward ? round(result.forward.rms * 1e3, 3) : null,
+      ...(result.forward ? { forward_worst: { difference_ms: round(result.forward.worst.difference * 1e3, 3), source_id: result.forward.worst.sourceId, receiver_x_m: result.forward.worst.receiverX } } : {}),
       reciprocal: result.reciprocal.map((c) => ({
         source_a: c.sourceA, source_b: c.sourceB,
         time_ab_ms: round(c.timeAB * 1e3, 3), time_ba_ms: round(c.timeBA * 1e3, 3),

@@ -61,6 +61,9 @@ export function summary(result: InterpretationResult, unit: LengthUnit, extraSec
     for (const w of qualifying) out.push(`  ! ${w.message}`);
     out.push('');
   }
+  if (result.forward) {
+    out.push(`Forward check: first arrivals computed through the interpreted section match the ${result.forward.picks} picks to ${(result.forward.rms * 1e3).toFixed(2)} ms RMS (worst ${(result.forward.worst.difference * 1e3).toFixed(2)} ms, source ${result.forward.worst.sourceId} at x = ${len(result.forward.worst.receiverX).toFixed(2)} ${unit})`);
+  }
   if (result.reciprocal.length > 0) {
     const bad = result.reciprocal.filter((c) => !c.ok);
     out.push(`Reciprocal times: ${result.reciprocal.length} pair${result.reciprocal.length > 1 ? 's' : ''} checked, ${bad.length} beyond the ${(result.reciprocal[0].tolerance * 1e3).toFixed(2)} ms tolerance${bad.length > 0 ? `: ${bad.map((c) => `${c.sourceA}-${c.sourceB} ${(c.difference * 1e3).toFixed(2)} ms`).join(', ')}` : ''}; largest difference ${(Math.max(...result.reciprocal.map((c) => c.difference)) * 1e3).toFixed(2)} ms`);
