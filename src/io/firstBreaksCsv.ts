@@ -128,11 +128,9 @@ export function readFirstBreaks(
       errors.push(new InputError(where(timeName), `negative time ${time}; expected a first-break time after the shot, zero or more`));
       continue;
     }
-    let wave: Wave | undefined;
     if (col('wave') >= 0) {
       const raw = cells[col('wave')].trim().toUpperCase();
       if (raw === 'P' || raw === 'S') {
-        wave = raw;
         waves.add(raw);
       } else if (raw !== '') {
         errors.push(new InputError(where('wave'), `"${cells[col('wave')]}" is not a wave type; expected P or S`));

@@ -1,0 +1,63 @@
+import { VERSION } from '../interpret.js';
+
+/** The text of hammerline --help. */
+export const HELP = `hammerline ${VERSION}: seismic-refraction interpretation for shallow site investigation
+
+Usage:
+  hammerline interpret FILE.csv [FILE.csv ...] [options]
+  hammerline interpret SHOT.seg2 [SHOT.seg2 ...] [geometry and picking options] [options]
+  hammerline pick SHOT.seg2 [SHOT.seg2 ...] [-o FILE.csv] [geometry and picking options]
+  hammerline records SHOT.seg2 [...] [--json]
+  hammerline site --layer THICKNESS:VELOCITY[:SE] [--layer ...] [--halfspace VELOCITY[:SE]] [options]
+  hammerline --help | --version
+
+interpret: reads first-break tables (CSV: source_id, source_x, source_elev, receiver_x,
+receiver_elev, time_ms or time_s, optional wave) and prints layer velocities with their standard
+errors, depths to each refractor under every source, warnings and cautions.
+
+Options for interpret:
+  --json                   print the JSON document (schema hammerline/interpretation@1; one
+                           document for one file, an array for several); always in metres and m/s
+  -o, --output FILE        write the summary or JSON to FILE instead of stdout (whole or not at all)
+  --units m|ft             unit of lengths in the input and of the summary (default m; velocities
+                           then in ft/s)
+  --wave P|S               wave type of the picks, when the table has no wave column (default P)
+  --segments N | BRANCH=N  fix the number of segments (1 to 4) for every branch or for one branch;
+                           a branch is SOURCE:forward (+x side) or SOURCE:reverse (-x side)
+  --breakpoint BRANCH=OFFSET[,OFFSET...]
+                           fix where new segments start on a branch, as offsets in the input unit
+  --max-segments N         most segments the criterion may choose (1 to 4, default 4)
+  --through-origin         force the direct-wave segment through the origin (common practice
+                           where the trigger is sound)
+  --allow-short-branches   leave out sides of a source with fewer than 3 picks instead of stopping
+  -q, --quiet              no progress messages on stderr
+
+Site class (Vs30; ASCE 7-16, ASCE 7-22, EN 1998-1:2004), printed for S-wave lines, or for P-wave
+lines given a Poisson's ratio:
+  --poisson NU[,NU...]     Poisson's ratio, one for every layer or one per layer top down, to
+                           ESTIMATE Vs from Vp (the classes are then labelled estimated)
+  --vp-vs R[,R...]         the same as a Vp/Vs ratio
+  --p-line FILE.csv        the P-wave line over the same ground, to check that Vs < Vp
+  --draws N                Monte Carlo draws (at least 2000, default 4000)
+  --seed N                 Monte Carlo seed (default 1)
+
+Shot records (SEG-2; recognised by their first bytes, whatever the name). Several records given
+to interpret are the shots of one line: they are picked, then interpreted together.
+  --source-x X             source position along the line (for records whose headers lack it)
+  --first-receiver X --spacing D
+                           receiver positions X + (channel - 1) × D (for headers without them)
+  --stations FILE.csv      station table (x, elev, optional station): ground elevations, and
+                           positions of records that give only station numbers
+  --bandpass LOW,HIGH      4th-order Butterworth band-pass before picking, zero phase, in Hz
+  pick writes the first-break table (with confidence, source_file and trace columns); traces
+  left unpicked (dead, no clear onset, inconsistent with their neighbours) are listed on stderr.
+
+site: classes a hand-entered shear-wave profile (for example from a downhole test):
+  --layer T:V[:SE]         a layer T thick (m, or ft with --units ft) at shear-wave velocity V
+                           (m/s or ft/s), with an optional standard error of V; top down, repeatable
+  --halfspace V[:SE]       velocity below the last layer (default: the last layer continues)
+  --estimated              the velocities are estimates, not measurements
+  --json, --units, --draws, --seed as above
+
+Exit status: 0 success, 2 bad input (message on stderr), 1 internal error.
+`;
