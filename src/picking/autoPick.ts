@@ -188,9 +188,13 @@ export function refineOnset(data: Float32Array, onset: number, short: number, ea
     const r = rampRss(k0);
     if (r < bestRss) { bestRss = r; best = k0; }
   }
-  for (let step = -1; step <= 1; step += 0.25) {
-    const r = rampRss(best + step);
-    if (r < bestRss) { bestRss = r; best += step; step = -1.25; }
+  // Quarter samples around the best whole sample, within the searched range.
+  const centre = best;
+  for (let step = -0.75; step <= 0.75; step += 0.25) {
+    const k0 = centre + step;
+    if (k0 < first || k0 > reach - 2) continue;
+    const r = rampRss(k0);
+    if (r < bestRss) { bestRss = r; best = k0; }
   }
   return Math.max(earliest, best);
 }

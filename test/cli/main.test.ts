@@ -238,6 +238,15 @@ describe('hammerline pick, records, and interpret of SEG-2 records', () => {
     expect(second.slice(1, 5)).toEqual(['-6', '212', '2', '211.97']);
   });
 
+  it('pick --bandpass filters before picking, and rejects corners that are not below Nyquist or not increasing', () => {
+    const filtered = run(['pick', records[3], '--bandpass', '10,400']);
+    expect(filtered.code).toBe(0);
+    expect(filtered.stdout.trim().split('\n').length).toBeGreaterThan(40);
+    // 0.25 ms sampling: Nyquist is 2000 Hz (FORMAT.md: SAMPLE_INTERVAL; the records' README).
+    expect(run(['pick', records[3], '--bandpass', '10,2500']).stderr).toMatch(/must satisfy 0 ≤ low < high < 2000 Hz/);
+    expect(run(['pick', records[3], '--bandpass', '10']).stderr).toMatch(/expected LOW,HIGH in Hz/);
+  });
+
   it('interpret refuses a mix of SEG-2 records and first-break tables', () => {
     expect(run(['interpret', records[0], example]).stderr).toMatch(/is a first-break table given with SEG-2 records/);
   });

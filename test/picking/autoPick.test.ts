@@ -102,3 +102,28 @@ describe('published picking methods', () => {
     expect(() => bandPass(tone(10), 0.00025, 200, 20)).toThrow(/0 ≤ low < high/);
   });
 });
+
+describe('pickRecord on arbitrary traces (fast-check)', () => {
+  it('pickRecord on random traces (noise, spikes, steps, filtered) returns a status for every trace within a time bound', async () => {
+    const fc = (await import('fast-check')).default;
+    fc.assert(fc.property(
+      fc.array(fc.record({ seed: fc.nat(10000), spike: fc.nat(599), size: fc.double({ min: -1e4, max: 1e4, noNaN: true }), step: fc.boolean() }), { minLength: 6, maxLength: 24 }),
+      fc.boolean(),
+      (specs, filtered) => {
+        const traces = specs.map((spec, i) => {
+          let data = causalTrace(600, 0.00025, -0.005, 0.01 + 0.001 * i, 3, spec.seed);
+          data[spec.spike] += spec.size;
+          if (spec.step) for (let k = spec.spike; k < data.length; k++) data[k] += spec.size / 10;
+          if (filtered) data = bandPass(data, 0.00025, 10, 400);
+          return { data, sampleInterval: 0.00025, delay: -0.005, offset: (i + 1) * (i % 2 ? 2 : -2) };
+        });
+        const start = performance.now();
+        const picks = pickRecord(traces);
+        // Every step is bounded by the trace length: a record of this size picks in milliseconds.
+        expect(performance.now() - start).toBeLessThan(1000);
+        expect(picks).toHaveLength(traces.length);
+        for (const p of picks) expect(['picked', 'repicked', 'dead', 'no clear onset', 'inconsistent']).toContain(p.status);
+      },
+    ), { numRuns: 60, seed: 5 });
+  });
+});
