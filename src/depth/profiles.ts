@@ -116,7 +116,8 @@ export function refractorProfiles(input: ProfileInput, warnings: WarningLog): Re
     byMethod['intercept-time'] = input.interceptPoints[n - 1] ?? [];
 
     const irregular = methodInfo['GRM']?.optimum_xy_basis === 'velocity analysis';
-    const { points, pointMethods } = recommend(byMethod, irregular);
+    const recommended = recommend(byMethod, irregular);
+    const { points, pointMethods } = fillGaps(recommended.points, recommended.pointMethods, receivers, elevation, n, warnings);
     const method = pointMethods.length === 0 ? 'none' : [...new Set(pointMethods)].join(' + ');
     result.push({ index: n, method, points, pointMethods, byMethod, methodInfo, hiddenLayer: hidden(input.fits, layers, n) });
     disagreements(n, byMethod, warnings);
@@ -162,12 +163,51 @@ function disagreements(n: number, byMethod: Record<string, RefractorPoint[]>, wa
   }
 }
 
+/** Gaps of at most this many geophones inside a profile are filled by linear interpolation. */
+export const FILL_GAP_GEOPHONES = 10;
+
+/**
+ * Fills geophones inside the recommended profile that no method covers (a thin refractor seen
+ * over short stretches, a receiver recorded from too few sources) by linear interpolation between
+ * the covered neighbours, for gaps of up to FILL_GAP_GEOPHONES. The standard error of a filled
+ * depth is the larger neighbour's plus half their difference; its method is "interpolated".
+ */
+function fillGaps(
+  points: RefractorPoint[], methods: string[], receivers: { x: number }[], elevation: (x: number) => number,
+  n: number, warnings: WarningLog,
+): { points: RefractorPoint[]; pointMethods: string[] } {
+  if (points.length < 2) return { points, pointMethods: methods };
+  const covered = new Map(points.map((p, i) => [p.x, i]));
+  const filled: { point: RefractorPoint; method: string }[] = points.map((point, i) => ({ point, method: methods[i] }));
+  const inside = receivers.filter((r) => r.x > points[0].x && r.x < points[points.length - 1].x && !covered.has(r.x));
+  let count = 0;
+  for (const r of inside) {
+    let a = 0;
+    while (a + 1 < points.length && points[a + 1].x < r.x) a++;
+    const left = points[a];
+    const right = points[a + 1];
+    const gap = receivers.filter((q) => q.x > left.x && q.x < right.x).length;
+    if (gap > FILL_GAP_GEOPHONES) continue;
+    const t = (r.x - left.x) / (right.x - left.x);
+    const depth = left.depth * (1 - t) + right.depth * t;
+    filled.push({ point: { x: r.x, depth, elev: elevation(r.x) - depth, depthSe: Math.max(left.depthSe, right.depthSe) + Math.abs(left.depth - right.depth) / 2 }, method: 'interpolated' });
+    count++;
+  }
+  if (count > 0) {
+    warnings.add('interpolated-depths',
+      `refractor ${n}: ${count} geophone${count > 1 ? 's' : ''} inside the profile that no method covers ${count > 1 ? 'have' : 'has'} depths interpolated between the covered neighbours (method "interpolated", with a larger standard error)`,
+      { layer: n + 1 });
+  }
+  filled.sort((p, q) => p.point.x - q.point.x);
+  return { points: filled.map((f) => f.point), pointMethods: filled.map((f) => f.method) };
+}
+
 function coverageGaps(n: number, points: RefractorPoint[], receivers: { x: number }[], warnings: WarningLog): void {
   const covered = new Set(points.map((p) => p.x));
   const missing = receivers.filter((r) => !covered.has(r.x)).map((r) => r.x);
   if (missing.length > 0) {
     warnings.add('not-covered',
-      `refractor ${n}: no depth at ${missing.length} of ${receivers.length} geophones (x = ${missing.slice(0, 8).join(', ')}${missing.length > 8 ? ', ...' : ''} m), where no source records its head wave; shoot farther off the ends to cover them`,
+      `refractor ${n}: no depth at ${missing.length} of ${receivers.length} geophones (x = ${missing.slice(0, 8).join(', ')}${missing.length > 8 ? ', ...' : ''} m), where no source records its head wave; shoot farther off the ends, or add sources, to cover them`,
       { layer: n + 1 });
   }
 }
