@@ -10,6 +10,19 @@ import { hiddenLayerLimit, type HiddenLayerLimit } from './hiddenLayer.js';
 import { plusMinus } from './plusMinus.js';
 import { reversedPair } from './reversedPair.js';
 
+/**
+ * The depth of an overburden refractor just beyond the ends of its profile (within `reach`
+ * metres): its end value held, with the standard error doubled. A deeper refractor seen at the
+ * line's ends needs the one above it there, and a refractor's depth changes little over a few
+ * geophones.
+ */
+function nearEnd(points: RefractorPoint[], x: number, reach: number): { depth: number; se: number } | undefined {
+  if (points.length === 0) return undefined;
+  const end = x < points[0].x ? points[0] : x > points[points.length - 1].x ? points[points.length - 1] : undefined;
+  if (end === undefined || Math.abs(end.x - x) > reach) return undefined;
+  return { depth: end.depth, se: 2 * end.depthSe };
+}
+
 /** Geophones in the running mean of an overburden refractor's depths used to convert deeper ones. */
 export const OVERBURDEN_WINDOW = 5;
 
@@ -67,7 +80,7 @@ export function refractorProfiles(input: ProfileInput, warnings: WarningLog): Re
       const ses: number[] = [];
       for (const above of result) {
         const own = above.byMethod[method];
-        const value = (own && own.length > 0 && depthAt(smooth(own), x)) || depthAt(smooth(above.points), x);
+        const value = (own && own.length > 0 && depthAt(smooth(own), x)) || depthAt(smooth(above.points), x) || nearEnd(smooth(above.points), x, 5 * spacing);
         if (value === undefined) return undefined;
         depths.push(value.depth);
         ses.push(value.se);
