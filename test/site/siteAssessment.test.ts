@@ -78,6 +78,15 @@ describe('assessSite', () => {
     expect(text).toMatch(/licensed professional.*local codes govern/);
   });
 
+  it('assessSite(10 m @ 200 m/s over 1000 m/s) gives vs,30 428.6 m/s, EN 1998-1 E by profile (B by vs,30) and ASCE 7-22 CD', () => {
+    // SITE-CLASSES.md check value: 30 / (10/200 + 20/1000) = 428.57 m/s; ASCE over 100 ft
+    // 30.48 / (10/200 + 20.48/1000) = 432.5 m/s = 1418.8 ft/s: 7-16 C (1200-2500), 7-22 CD (1000-1450), by hand.
+    const site = assessSite({ velocities: [200, 1000], velocitySes: [0, 0], stations: [{ x: 0, depths: [10], depthSes: [0] }], estimatedFromVp: false });
+    expect(site.vs30).toBeCloseTo(428.57, 2);
+    expect(site.classes.map((c) => c.class)).toEqual(['C', 'CD', 'E']);
+    expect(site.classes[2]).toMatchObject({ basis: 'profile shape', velocityClass: 'B' });
+  });
+
   it('assessSite rejects fewer than 2000 draws', () => {
     expect(() => assessSite(input, { draws: 100 })).toThrow(/at least 2000/);
   });
