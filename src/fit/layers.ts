@@ -150,6 +150,12 @@ export function layerVelocities(fits: BranchFit[], layerCount: number, warnings:
   const meanIntercept = weightedMean(directSegments.map(({ s }) => s.intercept), directSegments.map(({ s }) => s.interceptSe));
   const throughOrigin = meanIntercept !== undefined && Math.abs(meanIntercept.mean) < Math.max(2 * meanIntercept.se, 0.2e-3);
   const direct = directSegments.map(({ f, s }) => (throughOrigin ? originSlowness(f, s) : directSlowness(f, s)));
+  const directPicks = median(directSegments.map(({ s }) => s.used));
+  if (directPicks !== undefined && directPicks <= 4) {
+    warnings.add('few-direct-picks',
+      `the direct wave rests on ${directPicks} picks per branch (median): the top-layer velocity, on which every depth depends, is poorly sampled and a head-wave pick near the crossover can bias it; place geophones closer together near the sources`,
+      { layer: 1 });
+  }
   const v1Fit = weightedMean(direct.map((d) => d.slowness), direct.map((d) => d.se));
   let v1: number | undefined;
   let v1Se = 0;
