@@ -70,17 +70,37 @@ export function costTable(s: Sums, n: number, origin: boolean): RangeTable {
   const slope = new Float64Array((n + 1) * (n + 1));
   const first = new Float64Array(n + 1);
   const firstSlope = new Float64Array(n + 1);
+  // rangeLine written out, without an object per range: this table is the search's inner loop.
+  const { sx, sy, sxx, sxy, syy } = s;
   for (let i = 0; i < n; i++) {
     for (let j = i + 1; j <= n; j++) {
-      const line = rangeLine(s, i, j, false);
-      free[i * (n + 1) + j] = line.rss;
-      slope[i * (n + 1) + j] = line.slope;
+      const count = j - i;
+      const ax = sx[j] - sx[i];
+      const ay = sy[j] - sy[i];
+      const cxx = sxx[j] - sxx[i] - (ax * ax) / count;
+      const cxy = sxy[j] - sxy[i] - (ax * ay) / count;
+      const cyy = syy[j] - syy[i] - (ay * ay) / count;
+      const at = i * (n + 1) + j;
+      if (cxx <= 0) {
+        free[at] = cyy > 0 ? cyy : 0;
+        slope[at] = 0;
+      } else {
+        const b = cxy / cxx;
+        const rss = cyy - b * cxy;
+        free[at] = rss > 0 ? rss : 0;
+        slope[at] = b;
+      }
     }
   }
   for (let j = 1; j <= n; j++) {
-    const line = origin ? rangeLine(s, 0, j, true) : { rss: free[j], slope: slope[j] };
-    first[j] = line.rss;
-    firstSlope[j] = line.slope;
+    if (origin) {
+      const line = rangeLine(s, 0, j, true);
+      first[j] = line.rss;
+      firstSlope[j] = line.slope;
+    } else {
+      first[j] = free[j];
+      firstSlope[j] = slope[j];
+    }
   }
   return { free, slope, first, firstSlope };
 }
