@@ -65,9 +65,19 @@ export function segmentSlopes(s: Sums, cuts: number[], n: number, origin: boolea
  */
 export interface RangeTable { free: Float64Array; slope: Float64Array; first: Float64Array; firstSlope: Float64Array }
 
+// The tables are rebuilt for every fit of every branch; one pair of buffers, grown when needed,
+// saves the garbage collector most of its work. A table is used up before the next is made.
+let freeBuffer = new Float64Array(0);
+let slopeBuffer = new Float64Array(0);
+
 export function costTable(s: Sums, n: number, origin: boolean): RangeTable {
-  const free = new Float64Array((n + 1) * (n + 1));
-  const slope = new Float64Array((n + 1) * (n + 1));
+  const size = (n + 1) * (n + 1);
+  if (freeBuffer.length < size) {
+    freeBuffer = new Float64Array(size);
+    slopeBuffer = new Float64Array(size);
+  }
+  const free = freeBuffer.subarray(0, size);
+  const slope = slopeBuffer.subarray(0, size);
   const first = new Float64Array(n + 1);
   const firstSlope = new Float64Array(n + 1);
   // rangeLine written out, without an object per range: this table is the search's inner loop.
