@@ -88,20 +88,31 @@ export function pickRecord(traces: PickTrace[], options: PickOptions = {}): Trac
 
 /**
  * Picks (sorted by offset) that lie far from the travel-time curve their neighbours draw: the
- * departure is the smaller of the misfits to the line through the two neighbours before and the
- * line through the two after (at a crossover a good pick lies on one of them; a spike on neither).
+ * departure is the smaller of the misfits to the line through the three neighbours before and the
+ * line through the three after (at a crossover a good pick lies on one of them; a spike on neither).
  * A spike departs by more than six robust deviations (1.4826 × the median departure) and more than
  * max(5 samples, 2 ms). Removed worst first and the rest judged again, up to a fifth of the picks.
  */
 export function localSpikes(x: number[], y: number[], dt: number): number[] {
   const out: number[] = [];
   const excluded = new Set<number>();
+  // The line through up to three neighbours on one side, by Theil-Sen (the median of the pairwise
+  // slopes and of the intercepts; Sen 1968), so that one spike among them does not bend it.
   const side = (k: number, step: -1 | 1) => {
     const near: number[] = [];
-    for (let j = k + step; j >= 0 && j < x.length && near.length < 2; j += step) if (!excluded.has(j)) near.push(j);
-    if (near.length < 2 || x[near[0]] === x[near[1]]) return Infinity;
-    const slope = (y[near[1]] - y[near[0]]) / (x[near[1]] - x[near[0]]);
-    return Math.abs(y[k] - (y[near[0]] + slope * (x[k] - x[near[0]])));
+    for (let j = k + step; j >= 0 && j < x.length && near.length < 3; j += step) if (!excluded.has(j)) near.push(j);
+    if (near.length < 2) return Infinity;
+    const slopes: number[] = [];
+    for (let a = 0; a < near.length; a++) {
+      for (let b = a + 1; b < near.length; b++) {
+        if (x[near[a]] !== x[near[b]]) slopes.push((y[near[b]] - y[near[a]]) / (x[near[b]] - x[near[a]]));
+      }
+    }
+    if (slopes.length === 0) return Infinity;
+    const middle = (v: number[]) => { const sorted = [...v].sort((p, q) => p - q); const h = sorted.length >> 1; return sorted.length % 2 ? sorted[h] : (sorted[h - 1] + sorted[h]) / 2; };
+    const slope = middle(slopes);
+    const intercept = middle(near.map((j) => y[j] - slope * x[j]));
+    return Math.abs(y[k] - (intercept + slope * x[k]));
   };
   while (out.length < Math.floor(x.length / 5)) {
     const d = x.map((_, k) => (excluded.has(k) ? 0 : Math.min(side(k, -1), side(k, 1))));
@@ -119,7 +130,9 @@ export function localSpikes(x: number[], y: number[], dt: number): number[] {
 
 function windows(t: PickTrace, options: PickOptions) {
   const dt = t.sampleInterval;
-  const short = Math.max(4, Math.round((options.shortWindow ?? 2e-3) / dt));
+  // At least 8 samples in the STA: the mean of fewer squared noise samples exceeds four times the
+  // noise level too often (a chi-square with 4 degrees of freedom passes 16 three times in a thousand).
+  const short = Math.max(8, Math.round((options.shortWindow ?? 2e-3) / dt));
   const long = Math.max(short * 4, Math.round((options.longWindow ?? 20e-3) / dt));
   const aic = Math.max(16, Math.round((options.aicWindow ?? 6e-3) / dt));
   return { short, long, aic };
@@ -138,7 +151,7 @@ export function pickTrace(t: PickTrace, options: PickOptions = {}): TracePick {
   const { short, long, aic } = windows(t, options);
   // Only samples at or after the shot can hold a first break.
   const shot = Math.max(0, Math.ceil(-t.delay / t.sampleInterval));
-  const trigger = staLtaTriggerOn(t.data, short, long, options.threshold ?? 4, Math.min(8, Math.max(2, shot)), shot);
+  const trigger = staLtaTriggerOn(t.data, short, long, options.threshold ?? 4, Math.min(short, Math.max(2, shot)), shot);
   if (trigger === undefined) return { confidence: 0, status: 'no clear onset' };
   // The AIC window reaches well past the trigger so that the signal part is not just the rise.
   const end = Math.min(t.data.length, trigger + 2 * aic);

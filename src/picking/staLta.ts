@@ -20,7 +20,9 @@ export function staLtaTrigger(energy: Float64Array, short: number, long: number,
 
 /**
  * The same trigger computed on the samples with running window sums: no pass over the trace
- * beyond the trigger, no allocation (the fast path for picking whole records).
+ * beyond the trigger, no allocation (the fast path for picking whole records). Near the start of a
+ * record, where fewer than `long` samples measure the noise, the threshold is raised by
+ * √(long / samples), at most threefold.
  */
 export function staLtaTriggerOn(data: Float32Array, short: number, long: number, threshold: number, minimumNoise: number, from = 0): number | undefined {
   const n = data.length;
@@ -35,7 +37,10 @@ export function staLtaTriggerOn(data: Float32Array, short: number, long: number,
     const lo = Math.max(0, k - long);
     const noise = noiseSum / (k - lo);
     const signal = signalSum / short;
-    if (signal > threshold * noise && signal > 0) return k;
+    // A noise level measured on fewer samples than the LTA is less sure, so more is asked of the
+    // signal: the threshold grows as √(LTA / samples measured), up to three times.
+    const demand = threshold * Math.min(3, Math.sqrt(long / (k - lo)));
+    if (signal > demand * noise && signal > 0) return k;
     // Slide: sample k joins the noise window (and the oldest leaves it once the window is full);
     // sample k + short joins the signal window and sample k leaves it.
     const v = data[k];

@@ -232,10 +232,10 @@ describe('hammerline pick, records, and interpret of SEG-2 records', () => {
     const given = run(['pick', file, '--source-x=-6', '--first-receiver', '0', '--spacing', '2', '--stations', stations]);
     expect(run(['pick', file, '--source-x', '-6']).stderr).toMatch(/--source-x: a value starting with "-" must be joined with "="/);
     expect(given.code).toBe(0);
-    const second = given.stdout.trim().split('\n').slice(1).map((r) => r.split(',')).find((r) => r[8] === '2')!;
-    // Channel 2 is at x = 0 + (2 - 1) × 2 = 2 m; its elevation comes from the station table
-    // (212 - 0.03 = 211.97 m), and the source's from the table's end value beyond x = 0.
-    expect(second.slice(1, 5)).toEqual(['-6', '212', '2', '211.97']);
+    const tenth = given.stdout.trim().split('\n').slice(1).map((r) => r.split(',')).find((r) => r[8] === '10')!;
+    // Channel 10 is at x = 0 + (10 - 1) × 2 = 18 m; its elevation comes from the station table
+    // (212 - 0.03 × 9 = 211.73 m), and the source's from the table's end value beyond x = 0.
+    expect(tenth.slice(1, 5)).toEqual(['-6', '212', '18', '211.73']);
   });
 
   it('pick --bandpass filters before picking, and rejects corners that are not below Nyquist or not increasing', () => {
