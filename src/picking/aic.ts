@@ -1,3 +1,6 @@
+let sumBuffer = new Float64Array(0);
+let squareBuffer = new Float64Array(0);
+
 /**
  * AIC picker (Maeda 1985, Zisin 38, 365-379; Sleeman & van Eck 1999, PEPI 113, 265-275): within
  * samples [start, end) of a trace, the split k minimising
@@ -11,8 +14,15 @@
 export function aicOnset(data: Float32Array, start: number, end: number): { onset: number; sharpness: number } | undefined {
   const n = end - start;
   if (n < 8) return undefined;
-  const s1 = new Float64Array(n + 1);
-  const s2 = new Float64Array(n + 1);
+  // Running-sum buffers reused from call to call (every trace of every record comes through here).
+  if (sumBuffer.length < n + 1) {
+    sumBuffer = new Float64Array(2 * (n + 1));
+    squareBuffer = new Float64Array(2 * (n + 1));
+  }
+  const s1 = sumBuffer;
+  const s2 = squareBuffer;
+  s1[0] = 0;
+  s2[0] = 0;
   for (let i = 0; i < n; i++) {
     const v = data[start + i];
     s1[i + 1] = s1[i] + v;
