@@ -1,4 +1,3 @@
-import { CholeskyDecomposition, Matrix } from 'ml-matrix';
 import type { DelayProfile } from './delayProfile.js';
 import type { HeadCurve } from './headWaves.js';
 
@@ -9,10 +8,11 @@ const TIE_WEIGHT = 30;
  * Delay-time method for all sources together (Gardner 1939, Geophysics 4, 247-259; Barry 1967,
  * Geophys. Prospect. 15, 49-59): every head-wave first break from the refractor, from every source
  * including those off the ends, is t = aₛ + bᵣ + |xᵣ − xₛ| / V, with a delay time aₛ per source,
- * bᵣ per receiver and one refractor velocity V, solved by least squares (ml-matrix). The constant
+ * bᵣ per receiver and one refractor velocity V, solved by least squares. The constant
  * that could pass between source and receiver delays is fixed by tying each source inside the
  * spread to the receiver delay at its position (interpolated); with no source inside, by equal
- * mean source and receiver delays. Standard errors come from the covariance σ²(AᵀA)⁻¹. Only
+ * mean source and receiver delays; solved by Cholesky factorisation. Standard errors come from
+ * the covariance σ²(AᵀA)⁻¹. Only
  * receivers recorded from both directions get a delay: from one direction its delay and the
  * velocity trade off.
  *
@@ -62,7 +62,7 @@ export function delayTime(curves: HeadCurve[], refractor: number, refractorVeloc
     ];
     rows.push({ entries, value: 0, weight: TIE_WEIGHT });
   }
-  // Normal equations in plain arrays (each pick touches three unknowns), then one matrix for Cholesky.
+  // Normal equations in plain arrays (each pick touches three unknowns).
   const plain = new Float64Array(unknowns * unknowns);
   const rhsPlain = new Float64Array(unknowns);
   for (const row of rows) {
@@ -80,17 +80,16 @@ export function delayTime(curves: HeadCurve[], refractor: number, refractorVeloc
       plain[j * unknowns + i] = mean;
     }
   }
-  const normal = new Matrix(Array.from({ length: unknowns }, (_, i) => Array.from(plain.subarray(i * unknowns, (i + 1) * unknowns))));
-  const rhs = Matrix.columnVector(Array.from(rhsPlain));
-  let cholesky = new CholeskyDecomposition(normal);
-  if (!cholesky.isPositiveDefinite()) {
+  let lower = choleskyFactor(plain, unknowns);
+  if (lower === undefined) {
     // A part of the line tied to no source: a faint pull of every delay towards zero fixes its constant.
-    const ridge = (1e-9 * normal.trace()) / unknowns;
-    for (let i = 0; i < unknowns; i++) normal.set(i, i, normal.get(i, i) + ridge);
-    cholesky = new CholeskyDecomposition(normal);
-    if (!cholesky.isPositiveDefinite()) return undefined;
+    let trace = 0;
+    for (let i = 0; i < unknowns; i++) trace += plain[i * unknowns + i];
+    for (let i = 0; i < unknowns; i++) plain[i * unknowns + i] += (1e-9 * trace) / unknowns;
+    lower = choleskyFactor(plain, unknowns);
+    if (lower === undefined) return undefined;
   }
-  const solution = cholesky.solve(rhs).getColumn(0);
+  const solution = choleskySolve(lower, unknowns, rhsPlain);
   let rss = 0;
   for (let r = 0; r < observations; r++) {
     const row = rows[r];
@@ -98,7 +97,7 @@ export function delayTime(curves: HeadCurve[], refractor: number, refractorVeloc
     rss += (row.value - fitted) ** 2;
   }
   const variance = rss / Math.max(1, observations - unknowns + tied);
-  const inverseDiagonal = errors ? choleskyInverseDiagonal(cholesky.lowerTriangularMatrix.to2DArray()) : new Array(unknowns).fill(NaN);
+  const inverseDiagonal = errors ? choleskyInverseDiagonal(lower, unknowns) : new Array(unknowns).fill(NaN);
   const slowness = fixed ? 1 / refractorVelocity.velocity : solution[slownessIndex];
   const slownessSe = fixed ? refractorVelocity.se / refractorVelocity.velocity ** 2 : Math.sqrt(Math.max(0, inverseDiagonal[slownessIndex] * variance));
   const counts = new Map<number, number>();
@@ -136,22 +135,60 @@ export function delayTime(curves: HeadCurve[], refractor: number, refractorVeloc
 }
 
 /**
- * Diagonal of (L Lᵀ)⁻¹ from the Cholesky factor L: (A⁻¹)ᵢᵢ = Σₖ ((L⁻¹)ₖᵢ)², with L⁻¹ by forward
- * substitution, column by column (plain arrays: the inverse is the costly step of the method).
+ * Cholesky factor L of a symmetric positive-definite matrix A = L Lᵀ (row-major, n × n), by the
+ * Cholesky-Banachiewicz recurrence; undefined when A is not positive definite. Written out on
+ * typed arrays: the normal matrix of a line has a hundred or more unknowns and is factored for
+ * every refractor of every interpretation.
  */
-function choleskyInverseDiagonal(lower: number[][]): number[] {
-  const n = lower.length;
+function choleskyFactor(a: Float64Array, n: number): Float64Array | undefined {
+  const l = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j <= i; j++) {
+      let sum = a[i * n + j];
+      for (let k = 0; k < j; k++) sum -= l[i * n + k] * l[j * n + k];
+      if (i === j) {
+        if (!(sum > 0)) return undefined;
+        l[i * n + i] = Math.sqrt(sum);
+      } else {
+        l[i * n + j] = sum / l[j * n + j];
+      }
+    }
+  }
+  return l;
+}
+
+/** Solves L Lᵀ x = b by forward and back substitution. */
+function choleskySolve(l: Float64Array, n: number, b: Float64Array): number[] {
+  const y = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    let sum = b[i];
+    for (let k = 0; k < i; k++) sum -= l[i * n + k] * y[k];
+    y[i] = sum / l[i * n + i];
+  }
+  const x = new Array(n).fill(0);
+  for (let i = n - 1; i >= 0; i--) {
+    let sum = y[i];
+    for (let k = i + 1; k < n; k++) sum -= l[k * n + i] * x[k];
+    x[i] = sum / l[i * n + i];
+  }
+  return x;
+}
+
+/**
+ * Diagonal of (L Lᵀ)⁻¹ from the Cholesky factor L: (A⁻¹)ᵢᵢ = Σₖ ((L⁻¹)ₖᵢ)², with L⁻¹ by forward
+ * substitution, column by column.
+ */
+function choleskyInverseDiagonal(l: Float64Array, n: number): number[] {
   const diagonal = new Array(n).fill(0);
   const column = new Float64Array(n);
   for (let j = 0; j < n; j++) {
     column.fill(0);
-    column[j] = 1 / lower[j][j];
+    column[j] = 1 / l[j * n + j];
     diagonal[j] += column[j] * column[j];
     for (let k = j + 1; k < n; k++) {
       let sum = 0;
-      const row = lower[k];
-      for (let m = j; m < k; m++) sum -= row[m] * column[m];
-      column[k] = sum / row[k];
+      for (let m = j; m < k; m++) sum -= l[k * n + m] * column[m];
+      column[k] = sum / l[k * n + k];
       diagonal[j] += column[k] * column[k];
     }
   }
