@@ -19,6 +19,9 @@ Options for interpret:
   --json                   print the JSON document (schema hammerline/interpretation@1; one
                            document for one file, an array for several); always in metres and m/s
   -o, --output FILE        write the summary or JSON to FILE instead of stdout (whole or not at all)
+  --depths FILE.csv        also write the depth table by geophone (x, ground elevation, and for each
+                           refractor depth, standard error, elevation and method), with the layer
+                           velocities, cautions and warnings as # lines above the header
   --units m|ft             unit of lengths in the input and of the summary (default m; velocities
                            then in ft/s)
   --wave P|S               wave type of the picks, when the table has no wave column (default P)

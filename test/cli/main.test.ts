@@ -92,6 +92,23 @@ describe('hammerline interpret', () => {
     expect(JSON.parse(written['out.json']).schema).toBe('hammerline/interpretation@1');
   });
 
+  it('interpret --depths writes the depth table by geophone with its cautions above the header', () => {
+    const { code, written } = run(['interpret', example, '--depths', 'depths.csv']);
+    expect(code).toBe(0);
+    const lines = written['depths.csv'].trim().split('\n');
+    expect(lines.filter((l) => l.startsWith('# caution:')).length).toBeGreaterThanOrEqual(3);
+    const table = lines.filter((l) => !l.startsWith('#'));
+    expect(table[0]).toBe('x,ground_elev,depth_1,depth_1_se,elev_1,method_1');
+    // 48 geophones (survey-examples/pump-station/README.md), each with a depth, within 0.3 m of the true
+    // model's 4.5 + 2x/94 m.
+    expect(table).toHaveLength(49);
+    for (const row of table.slice(1)) {
+      const [x, , depth] = row.split(',').map(Number);
+      expect(Math.abs(depth - (4.5 + (2 * x) / 94))).toBeLessThan(0.3);
+    }
+    expect(run(['interpret', example, example, '--depths', 'd.csv']).stderr).toMatch(/--depths writes the depth table of one line/);
+  });
+
   it('interpret --segments fixes a branch and the JSON says the user chose it', () => {
     const doc = JSON.parse(run(['interpret', example, '--json', '--segments', 'S2:forward=1']).stdout);
     const branch = doc.branches.find((b: { source_id: string; side: string }) => b.source_id === 'S2' && b.side === 'forward');

@@ -1,0 +1,34 @@
+import { fromMetres, type LengthUnit } from '../core/units.js';
+import type { InterpretationResult } from '../interpret.js';
+
+const fixed = (value: number | undefined, digits: number) => (value === undefined || !Number.isFinite(value) ? '' : Number(value.toFixed(digits)).toString());
+
+/**
+ * The depth table by geophone, as CSV (RFC 4180) for drawing programs and spreadsheets: one row per
+ * geophone with its ground elevation and, for each refractor, the recommended depth below ground,
+ * its standard error, the refractor elevation and the method. Lines starting with `#` above the
+ * header carry the file, the layer velocities and every caution and warning, so the numbers never
+ * travel without them. Lengths in the given unit.
+ */
+export function depthsCsv(result: InterpretationResult, receivers: { x: number; elev: number }[], unit: LengthUnit = 'm'): string {
+  const len = (m: number | undefined) => (m === undefined ? undefined : fromMetres(m, unit));
+  const quote = (text: string) => (/[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text);
+  const lines: string[] = [];
+  lines.push(`# hammerline depth table: ${result.file}; lengths in ${unit === 'ft' ? 'feet' : 'metres'}, velocities in ${unit === 'ft' ? 'ft/s' : 'm/s'}`);
+  lines.push(`# layers: ${result.layers.map((l) => `${l.index}: ${Math.round(len(l.velocity)!)} ± ${Math.round(len(l.velocitySe)!)}`).join('; ')}`);
+  for (const c of result.cautions) lines.push(`# caution: ${c.message}`);
+  for (const w of result.warnings) lines.push(`# warning [${w.code}]: ${w.message.replace(/\n/g, ' ')}`);
+  const header = ['x', 'ground_elev'];
+  for (const r of result.refractors) header.push(`depth_${r.index}`, `depth_${r.index}_se`, `elev_${r.index}`, `method_${r.index}`);
+  lines.push(header.join(','));
+  for (const receiver of receivers) {
+    const cells = [fixed(len(receiver.x), 3), fixed(len(receiver.elev), 3)];
+    for (const r of result.refractors) {
+      const i = r.points.findIndex((p) => p.x === receiver.x);
+      const p = i >= 0 ? r.points[i] : undefined;
+      cells.push(fixed(len(p?.depth), 3), fixed(len(p?.depthSe), 3), fixed(len(p?.elev), 3), p ? quote(r.pointMethods[i]) : '');
+    }
+    lines.push(cells.join(','));
+  }
+  return lines.join('\n') + '\n';
+}
