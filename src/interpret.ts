@@ -15,7 +15,7 @@ import { assignLayers, layerVelocities } from './fit/layers.js';
 import { siteInputFromInterpretation, type VsFromVpOptions } from './site/fromInterpretation.js';
 import { assessSite, type SiteAssessment, type SiteOptions } from './site/siteAssessment.js';
 
-export const VERSION = '0.5.0';
+export const VERSION = '0.5.1';
 
 /** Warnings that show a fit took bends of the branches for layers (see staticsCorrectedFits). */
 const IRREGULAR = new Set(['apparent-velocity-decrease', 'layer-consistency', 'unreversed-layer', 'velocity-inversion', 'layer-merged']);
