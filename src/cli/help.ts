@@ -12,8 +12,10 @@ Usage:
   hammerline --help | --version
 
 interpret: reads first-break tables (CSV: source_id, source_x, source_elev, receiver_x,
-receiver_elev, time_ms or time_s, optional wave) and prints layer velocities with their standard
-errors, depths to each refractor under every source, warnings and cautions.
+receiver_elev, time_ms or time_s, optional wave) or SEG-2 records, and prints layer velocities with
+their standard errors, the depth to each refractor under every geophone (plus-minus, GRM and
+delay-time; intercept-time under the sources), reciprocal times, a forward check of the section,
+the site class where it can be had, and every warning and caution.
 
 Options for interpret:
   --json                   print the JSON document (schema hammerline/interpretation@1; one
@@ -46,7 +48,8 @@ lines given a Poisson's ratio:
 
 Shot records (SEG-2; recognised by their first bytes, whatever the name). Several records given
 to interpret are the shots of one line: they are picked, then interpreted together.
-  --source-x X             source position along the line (for records whose headers lack it)
+  --source-x X             source position along the line (for records whose headers lack it;
+                           a negative value is joined with =, as --source-x=-6)
   --first-receiver X --spacing D
                            receiver positions X + (channel - 1) × D (for headers without them)
   --stations FILE.csv      station table (x, elev, optional station): ground elevations, and
