@@ -5,7 +5,7 @@ import { WarningLog } from './core/warnings.js';
 import { interceptTimeDepths } from './depth/interceptTime.js';
 import { DISAGREE_FRACTION, DISAGREE_METRES, refractorProfiles, type RefractorMethods } from './depth/profiles.js';
 import { reciprocalChecks, reciprocalTolerance, type ReciprocalCheck } from './depth/reciprocal.js';
-import { splitBranches } from './fit/branches.js';
+import { splitBranches, startsAtSource } from './fit/branches.js';
 import { forwardCheck, type ForwardCheck } from './forward/forwardCheck.js';
 import { linearAt } from './core/interpolate.js';
 import { branchName, fitBranches, type BranchChoices } from './fit/fitBranches.js';
@@ -238,7 +238,7 @@ export function receiverSpacing(table: FirstBreakTable): number {
  * to see it, so a lone one is taken for noise. Branches whose segments the user fixed are left alone.
  */
 function loneDeepestBranches(fits: BranchFit[], spacing: number): { fit: BranchFit; seenBeyond: string }[] {
-  const near = fits.filter((f) => f.branch.offsets.find((o) => o > 0)! <= 2.01 * spacing);
+  const near = fits.filter((f) => startsAtSource(f.branch, spacing));
   if (near.length < 2) return [];
   const deepest = Math.max(...near.map((f) => f.segments.length));
   const members = near.filter((f) => f.segments.length === deepest);
@@ -264,7 +264,7 @@ function lineFitRms(fits: BranchFit[]): number {
 }
 
 /** Each receiver position with its ground elevation, sorted along the line. */
-function receiverGround(table: FirstBreakTable): { x: number; elev: number }[] {
+export function receiverGround(table: FirstBreakTable): { x: number; elev: number }[] {
   const byX = new Map<number, number>();
   for (const p of table.picks) byX.set(p.receiverX, p.receiverElev);
   return [...byX.entries()].sort((a, b) => a[0] - b[0]).map(([x, elev]) => ({ x, elev }));

@@ -3,9 +3,8 @@ import { WarningLog } from '../core/warnings.js';
 import { readFirstBreaks } from '../io/firstBreaksCsv.js';
 import { depthsCsv } from '../io/depthsCsv.js';
 import { interpretationJson } from '../io/interpretationJson.js';
-import type { FirstBreakTable } from '../core/types.js';
 import { pickTableCsv, unpickedSummary } from '../io/pickTable.js';
-import { interpret, type InterpretationResult, type InterpretOptions } from '../interpret.js';
+import { interpret, receiverGround, type InterpretationResult, type InterpretOptions } from '../interpret.js';
 import { summary } from '../report/summary.js';
 import { checkShearSlowerThanP } from '../site/fromInterpretation.js';
 import { keyValue, lengthUnitOption, listOption, numberOption, parse, readInput, SITE_OPTIONS, siteOptions, waveOption } from './args.js';
@@ -86,7 +85,7 @@ export function interpretCommand(args: string[], io: CliIo): number {
     for (const sentence of unpickedSummary(rows)) log.add('unpicked-traces', sentence);
     const table = readFirstBreaks(pickTableCsv(rows), name, log, { wave });
     const result = interpret(table, options, log);
-    if (values.depths) io.writeText(values.depths as string, depthsCsv(result, groundOf(table), unit));
+    if (values.depths) io.writeText(values.depths as string, depthsCsv(result, receiverGround(table), unit));
     const output = values.json ? JSON.stringify(interpretationJson(result, { picking: { records, picked: rows.filter((r) => r.time !== undefined).length, traces: rows.length } }), null, 2) + '\n' : summary(result, unit);
     if (values.output) io.writeText(values.output as string, output);
     else io.stdout(output);
@@ -103,7 +102,7 @@ export function interpretCommand(args: string[], io: CliIo): number {
         if (result.wave !== 'S') throw new InputError({ file }, '--p-line compares an S-wave line with a P-wave line; this line is not an S-wave line (use --wave S or a wave column)');
         checkShearSlowerThanP(result, pLine);
       }
-      if (values.depths) io.writeText(values.depths as string, depthsCsv(result, groundOf(table), unit));
+      if (values.depths) io.writeText(values.depths as string, depthsCsv(result, receiverGround(table), unit));
       if (values.json) documents.push(interpretationJson(result));
       else texts.push(summary(result, unit));
     } catch (error) {
@@ -122,9 +121,3 @@ export function interpretCommand(args: string[], io: CliIo): number {
   return failed > 0 ? 2 : 0;
 }
 
-/** Each geophone position of a table with its ground elevation, along the line. */
-function groundOf(table: FirstBreakTable): { x: number; elev: number }[] {
-  const byX = new Map<number, number>();
-  for (const p of table.picks) byX.set(p.receiverX, p.receiverElev);
-  return [...byX.entries()].sort((a, b) => a[0] - b[0]).map(([x, elev]) => ({ x, elev }));
-}

@@ -1,3 +1,4 @@
+import { linearWithin } from '../core/interpolate.js';
 import type { BranchFit } from '../core/types.js';
 
 /** Head-wave first breaks of one branch from one refractor: receiver positions (ascending) and times. */
@@ -33,13 +34,7 @@ export function headCurves(fits: BranchFit[], layer: number): HeadCurve[] {
 
 /** Linear interpolation of a curve at x, only inside its range (undefined outside). */
 export function timeAt(curve: { xs: number[]; times: number[] }, x: number): number | undefined {
-  const { xs, times } = curve;
-  if (xs.length === 0 || x < xs[0] - 1e-9 || x > xs[xs.length - 1] + 1e-9) return undefined;
-  let i = 0;
-  while (i < xs.length - 1 && xs[i + 1] < x) i++;
-  if (i === xs.length - 1 || Math.abs(xs[i] - x) < 1e-9) return times[i];
-  const t = (x - xs[i]) / (xs[i + 1] - xs[i]);
-  return times[i] * (1 - t) + times[i + 1] * t;
+  return linearWithin(curve.xs, curve.times, x);
 }
 
 /** A head-wave time curve made of one source's own picks and phantomed picks of other sources. */

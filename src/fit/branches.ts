@@ -69,3 +69,11 @@ export function splitBranches(picks: FirstBreak[], warnings: WarningLog, options
   }
   return branches.sort((a, b) => a.sourceX - b.sourceX || (a.side === 'reverse' ? -1 : 1));
 }
+
+/**
+ * True when a branch starts at its source: its nearest pick with an offset lies within two
+ * receiver spacings, so it records the direct wave (a source off the end starts farther out).
+ */
+export function startsAtSource(branch: Branch, spacing: number): boolean {
+  return branch.offsets.find((o) => o > 0)! <= 2.01 * spacing;
+}

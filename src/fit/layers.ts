@@ -1,6 +1,7 @@
 import { SimpleLinearRegression } from 'ml-regression';
 import { propagate } from '../core/propagate.js';
 import { median, weightedMean } from '../core/stats.js';
+import { startsAtSource } from './branches.js';
 import type { BranchFit, Layer, Segment } from '../core/types.js';
 import type { WarningLog } from '../core/warnings.js';
 
@@ -33,7 +34,7 @@ const NEW_LAYER_RATIO = 1.25;
  * @returns the number of layers
  */
 export function assignLayers(fits: BranchFit[], spacing: number, warnings: WarningLog): number {
-  const near = (fit: BranchFit) => fit.branch.offsets.find((o) => o > 0)! <= 2.01 * spacing;
+  const near = (fit: BranchFit) => startsAtSource(fit.branch, spacing);
   // A near-source branch whose first segment does not start near time zero has no direct-wave
   // segment (too few picks before the crossover): its segments are refracted from the first.
   const headFirst = (fit: BranchFit) => {

@@ -1,3 +1,4 @@
+import { median } from '../core/stats.js';
 import { hingeFit, optimiseKnots } from './hingeFit.js';
 import {
   bestDecreasingPartition, bestPartitions, costTable, partitionRss, prefixSums, rangeLine, segmentSlopes, separateLines,
@@ -336,14 +337,9 @@ function flagOutliers(x: number[], y: number[], keep: number[], segments: LineSe
       if (i >= seg.start && i < seg.end) residuals.push({ index: i, r: y[i] - (seg.intercept + seg.slope * x[i]) });
     }
   }
-  const median = (v: number[]) => {
-    const s = [...v].sort((a, b) => a - b);
-    const h = s.length >> 1;
-    return s.length % 2 ? s[h] : (s[h - 1] + s[h]) / 2;
-  };
-  const med = median(residuals.map((e) => e.r));
+  const med = median(residuals.map((e) => e.r)) ?? 0;
   // Floor the spread at 0.05 ms so that near-exact data do not flag rounding as outliers.
-  const mad = Math.max(median(residuals.map((e) => Math.abs(e.r - med))), 0.05e-3);
+  const mad = Math.max(median(residuals.map((e) => Math.abs(e.r - med))) ?? 0, 0.05e-3);
   const flagged = residuals.filter((e) => (0.6745 * Math.abs(e.r - med)) / mad > OUTLIER_Z);
   if (worstFirst) flagged.sort((a, b) => Math.abs(b.r - med) - Math.abs(a.r - med));
   return flagged.map((e) => e.index);

@@ -1,9 +1,11 @@
 import { InputError } from '../core/errors.js';
+import { linearWithin } from '../core/interpolate.js';
 import { median } from '../core/stats.js';
 import type { Branch, BranchFit } from '../core/types.js';
 import type { WarningLog } from '../core/warnings.js';
 import { delayTime } from '../depth/delayTime.js';
 import type { HeadCurve } from '../depth/headWaves.js';
+import { startsAtSource } from './branches.js';
 import { branchFit, branchName, segmentLimit, type BranchChoices } from './fitBranches.js';
 import { segmentedRegression } from './segmentedRegression.js';
 
@@ -31,7 +33,7 @@ export function staticsCorrectedFits(branches: Branch[], choices: BranchChoices,
   const first = new Map(branches.map((b) => [b, segmentedRegression(b.offsets, b.times, { firstThroughOrigin: choices.directThroughOrigin, maxSegments: choices.maxSegments, forbidSlopeIncrease: true })]));
   // Branches that start at their source see the direct wave first; its slowness tells whether an
   // off-end branch starts with the direct wave too or is refracted throughout.
-  const nearSource = (b: Branch) => b.offsets.find((o) => o > 0)! <= 2.01 * spacing;
+  const nearSource = (b: Branch) => startsAtSource(b, spacing);
   const directSlowness = median(branches.filter(nearSource).map((b) => first.get(b)).filter((f) => f !== undefined && f.segments.length > 1).map((f) => f!.segments[0].slope));
   if (directSlowness === undefined) return undefined;
   const noise = median([...first.values()].filter((f) => f !== undefined).map((f) => f!.residualSd)) ?? 0;
@@ -71,7 +73,7 @@ export function staticsCorrectedFits(branches: Branch[], choices: BranchChoices,
       // The straightened lines describe the refractor's mean depth plus this source's own delay; adding
       // back the receiver correction at the source makes a refracted segment's intercept the local one
       // again (twice the delay time under the source), as the intercept-time method needs.
-      const atSource = interpolate(delays.stations, branch.sourceX);
+      const atSource = linearWithin(delays.stations.map((d) => d.x), delays.stations.map((d) => d.delay), branch.sourceX);
       const adjusted = shape.segments.map((segment) => {
         let refractedPicks = 0;
         for (let i = segment.start; i < segment.end; i++) if (flags[i]) refractedPicks++;
@@ -86,13 +88,3 @@ export function staticsCorrectedFits(branches: Branch[], choices: BranchChoices,
   });
 }
 
-/** Linear interpolation of station delays at x; undefined outside the stations. */
-function interpolate(stations: { x: number; delay: number }[], x: number): number | undefined {
-  if (stations.length === 0 || x < stations[0].x || x > stations[stations.length - 1].x) return undefined;
-  let i = 0;
-  while (i < stations.length - 1 && stations[i + 1].x < x) i++;
-  const a = stations[i];
-  const b = stations[Math.min(stations.length - 1, i + 1)];
-  if (b.x === a.x) return a.delay;
-  return a.delay + ((b.delay - a.delay) * (x - a.x)) / (b.x - a.x);
-}

@@ -1,7 +1,6 @@
 import { fromMetres, type LengthUnit } from '../core/units.js';
+import { decimal } from './numbers.js';
 import type { InterpretationResult } from '../interpret.js';
-
-const fixed = (value: number | undefined, digits: number) => (value === undefined || !Number.isFinite(value) ? '' : Number(value.toFixed(digits)).toString());
 
 /**
  * The depth table by geophone, as CSV (RFC 4180) for drawing programs and spreadsheets: one row per
@@ -22,11 +21,11 @@ export function depthsCsv(result: InterpretationResult, receivers: { x: number; 
   for (const r of result.refractors) header.push(`depth_${r.index}`, `depth_${r.index}_se`, `elev_${r.index}`, `method_${r.index}`);
   lines.push(header.join(','));
   for (const receiver of receivers) {
-    const cells = [fixed(len(receiver.x), 3), fixed(len(receiver.elev), 3)];
+    const cells = [decimal(len(receiver.x), 3), decimal(len(receiver.elev), 3)];
     for (const r of result.refractors) {
       const i = r.points.findIndex((p) => p.x === receiver.x);
       const p = i >= 0 ? r.points[i] : undefined;
-      cells.push(fixed(len(p?.depth), 3), fixed(len(p?.depthSe), 3), fixed(len(p?.elev), 3), p ? quote(r.pointMethods[i]) : '');
+      cells.push(decimal(len(p?.depth), 3), decimal(len(p?.depthSe), 3), decimal(len(p?.elev), 3), p ? quote(r.pointMethods[i]) : '');
     }
     lines.push(cells.join(','));
   }

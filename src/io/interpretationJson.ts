@@ -1,13 +1,11 @@
 import type { BranchFit, RefractorPoint } from '../core/types.js';
+import { round } from './numbers.js';
 import type { InterpretationResult } from '../interpret.js';
 import { VERSION } from '../interpret.js';
 import { siteJson } from './siteJson.js';
 
 /** Version tag of the JSON document; change it when a stable field changes meaning. */
 export const INTERPRETATION_SCHEMA = 'hammerline/interpretation@1';
-
-const round = (value: number | undefined, digits: number) =>
-  value === undefined || !Number.isFinite(value) ? null : Number(value.toFixed(digits));
 
 function point(p: RefractorPoint, method?: string) {
   return { x_m: round(p.x, 3), depth_m: round(p.depth, 3), elev_m: round(p.elev, 3), depth_se_m: round(p.depthSe, 3), ...(p.sourceId ? { source_id: p.sourceId } : {}), ...(method ? { method } : {}) };

@@ -1,7 +1,6 @@
 import { fromMetres, type LengthUnit } from '../core/units.js';
+import { decimal } from './numbers.js';
 import type { PickRow } from '../picking/recordPicks.js';
-
-const number = (value: number, digits: number) => Number(value.toFixed(digits)).toString();
 
 /**
  * The first-break table (CSV, the DESIGN.md contract) of automatic picks, with the confidence,
@@ -15,12 +14,12 @@ export function pickTableCsv(rows: PickRow[], unit: LengthUnit = 'm'): string {
   const quote = (text: string) => (/[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text);
   const lines = picked.map((r) => [
     quote(r.sourceId),
-    number(fromMetres(r.sourceX, unit), 4),
-    ...(withElevations ? [number(fromMetres(r.sourceElev!, unit), 4)] : []),
-    number(fromMetres(r.receiverX, unit), 4),
-    ...(withElevations ? [number(fromMetres(r.receiverElev!, unit), 4)] : []),
-    number(r.time! * 1e3, 4),
-    number(r.confidence, 3),
+    decimal(fromMetres(r.sourceX, unit), 4),
+    ...(withElevations ? [decimal(fromMetres(r.sourceElev!, unit), 4)] : []),
+    decimal(fromMetres(r.receiverX, unit), 4),
+    ...(withElevations ? [decimal(fromMetres(r.receiverElev!, unit), 4)] : []),
+    decimal(r.time! * 1e3, 4),
+    decimal(r.confidence, 3),
     quote(r.file),
     String(r.trace),
   ].join(','));

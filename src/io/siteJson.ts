@@ -1,7 +1,5 @@
 import type { SiteAssessment } from '../site/siteAssessment.js';
-
-const round = (value: number | undefined, digits: number) =>
-  value === undefined || !Number.isFinite(value) ? null : Number(value.toFixed(digits));
+import { round } from './numbers.js';
 
 /** The `site` block of the JSON contract (DESIGN.md), in m/s and metres. */
 export function siteJson(site: SiteAssessment): Record<string, unknown> {

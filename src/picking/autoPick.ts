@@ -1,3 +1,4 @@
+import { median } from '../core/stats.js';
 import { segmentedRegression } from '../fit/segmentedRegression.js';
 import { aicOnset } from './aic.js';
 import { staLtaTriggerOn } from './staLta.js';
@@ -109,9 +110,8 @@ export function localSpikes(x: number[], y: number[], dt: number): number[] {
       }
     }
     if (slopes.length === 0) return Infinity;
-    const middle = (v: number[]) => { const sorted = [...v].sort((p, q) => p - q); const h = sorted.length >> 1; return sorted.length % 2 ? sorted[h] : (sorted[h - 1] + sorted[h]) / 2; };
-    const slope = middle(slopes);
-    const intercept = middle(near.map((j) => y[j] - slope * x[j]));
+    const slope = median(slopes)!;
+    const intercept = median(near.map((j) => y[j] - slope * x[j]))!;
     return Math.abs(y[k] - (intercept + slope * x[k]));
   };
   while (out.length < Math.floor(x.length / 5)) {

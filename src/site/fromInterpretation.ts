@@ -1,4 +1,5 @@
 import { InputError } from '../core/errors.js';
+import { depthAt } from '../depth/delayProfile.js';
 import type { Interpretation, Layer, Refractor } from '../core/types.js';
 import type { InterpretationResult } from '../interpret.js';
 import type { SiteInput, SiteStation } from './siteAssessment.js';
@@ -63,23 +64,13 @@ function stationsAlong(refractors: Refractor[], receiverXs: number[]): SiteStati
     const depths: number[] = [];
     const depthSes: number[] = [];
     for (const r of refractors) {
-      const { value, se } = interpolate(r, x);
-      depths.push(Math.max(value, depths[depths.length - 1] ?? 0));
+      // Every station lies within every refractor's points, so the interpolation is defined.
+      const { depth, se } = depthAt(r.points, x)!;
+      depths.push(Math.max(depth, depths[depths.length - 1] ?? 0));
       depthSes.push(se);
     }
     return { x, depths, depthSes };
   });
-}
-
-function interpolate(refractor: Refractor, x: number): { value: number; se: number } {
-  const points = refractor.points;
-  let i = 1;
-  while (i < points.length - 1 && points[i].x < x) i++;
-  const a = points[Math.max(0, i - 1)];
-  const b = points[Math.min(points.length - 1, i)];
-  if (a.x === b.x) return { value: a.depth, se: a.depthSe };
-  const t = Math.min(1, Math.max(0, (x - a.x) / (b.x - a.x)));
-  return { value: a.depth * (1 - t) + b.depth * t, se: a.depthSe * (1 - t) + b.depthSe * t };
 }
 
 /**
