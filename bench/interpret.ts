@@ -3,6 +3,7 @@
  * plain single least-squares line pass over the same picks, measured in the same run.
  * Target (issue 2): a full interpretation under 50 ms on one core. Run: npm run bench
  */
+import { medianTime } from './timing.js';
 import { SimpleLinearRegression } from 'ml-regression';
 import { WarningLog } from '../src/core/warnings.js';
 import { readFirstBreaks } from '../src/io/firstBreaksCsv.js';
@@ -28,22 +29,8 @@ function floor(): number {
   return sum;
 }
 
-function time(label: string, run: () => unknown, repeats: number): number {
-  for (let i = 0; i < 3; i++) run();
-  const samples: number[] = [];
-  for (let i = 0; i < repeats; i++) {
-    const start = performance.now();
-    run();
-    samples.push(performance.now() - start);
-  }
-  samples.sort((a, b) => a - b);
-  const median = samples[samples.length >> 1];
-  process.stdout.write(`${label}: median ${median.toFixed(3)} ms over ${repeats} runs\n`);
-  return median;
-}
-
 const picks = table.picks.length;
-const full = time(`interpret() on ${picks} picks (96 channels, 25 sources)`, () => interpret(table, {}, new WarningLog()), 30);
-const base = time('floor: one least-squares line per source', floor, 200);
+const full = medianTime(`interpret() on ${picks} picks (96 channels, 25 sources)`, () => interpret(table, {}, new WarningLog()), 30);
+const base = medianTime('floor: one least-squares line per source', floor, 200);
 process.stdout.write(`ratio interpret / floor: ${(full / base).toFixed(1)}\n`);
 process.stdout.write(`target: interpret under 50 ms: ${full < 50 ? 'met' : 'NOT met'} (${full.toFixed(1)} ms)\n`);

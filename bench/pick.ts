@@ -3,6 +3,7 @@
  * second, against the memory floor: a plain pass summing the same Float32Array traces, measured in
  * the same run. Target (issue 5): at least 0.2 of the floor. Run: npm run bench:pick
  */
+import { medianTime } from './timing.js';
 import { pickRecord } from '../src/picking/autoPick.js';
 import { causalTrace } from '../test/picking/syntheticRecord.js';
 
@@ -25,21 +26,7 @@ function floor(): number {
   return sum;
 }
 
-function time(label: string, run: () => unknown, repeats: number): number {
-  for (let i = 0; i < 5; i++) run();
-  const samplesMs: number[] = [];
-  for (let i = 0; i < repeats; i++) {
-    const start = performance.now();
-    run();
-    samplesMs.push(performance.now() - start);
-  }
-  samplesMs.sort((a, b) => a - b);
-  const median = samplesMs[samplesMs.length >> 1];
-  process.stdout.write(`${label}: median ${median.toFixed(3)} ms, ${((total / median) * 1e3 / 1e6).toFixed(1)} million samples/s\n`);
-  return median;
-}
-
-const pick = time(`pickRecord on ${traces.length} traces × ${samples} samples`, () => pickRecord(traces), 40);
-const base = time('floor: summing the same Float32Array traces', floor, 400);
+const pick = medianTime(`pickRecord on ${traces.length} traces × ${samples} samples`, () => pickRecord(traces), 40, (ms) => `${((total / ms) * 1e3 / 1e6).toFixed(1)} million samples/s`);
+const base = medianTime('floor: summing the same Float32Array traces', floor, 400, (ms) => `${((total / ms) * 1e3 / 1e6).toFixed(1)} million samples/s`);
 const ratio = base / pick;
 process.stdout.write(`throughput ratio picking / floor: ${ratio.toFixed(3)} (target at least 0.2: ${ratio >= 0.2 ? 'met' : 'NOT met'})\n`);
