@@ -1,22 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { syntheticCsv, type LayeredSection } from './reference/layeredTravelTimes.js';
+import { syntheticCsv, type LineCase } from './reference/layeredTravelTimes.js';
 import { interpretCsv, range } from './helpers.js';
 
 // Lines made by the independent forward model of test/reference/layeredTravelTimes.ts (least
 // time by Fermat's principle over finely sampled interfaces; no refraction formula) plus seeded
 // Gaussian pick noise of 0.3 ms. Tolerances from the issue: every velocity within 2 %, every
 // intercept-time depth under a source within 0.3 m.
-interface Case {
-  name: string;
-  section: LayeredSection;
-  sources: number[];
-  receivers: number[];
-  /** True depth of each refractor below the ground at x, in metres. */
-  depth: ((x: number) => number)[];
-}
 
 const tan6 = Math.tan((6 * Math.PI) / 180);
-const cases: Case[] = [
+const cases: LineCase[] = [
   {
     name: 'flat two-layer (500 over 2200 m/s, 6 m)',
     section: { surface: () => 100, interfaces: [() => 94], velocities: [500, 2200] },

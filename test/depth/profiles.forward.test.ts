@@ -1,19 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import { hiddenLayerLimit } from '../../src/depth/hiddenLayer.js';
 import { reciprocalTolerance } from '../../src/depth/reciprocal.js';
-import { syntheticCsv, type LayeredSection } from '../reference/layeredTravelTimes.js';
+import { syntheticCsv, type LayeredSection, type LineCase } from '../reference/layeredTravelTimes.js';
 import { csvFrom, interpretCsv, range } from '../helpers.js';
 
 // Lines from the independent forward model of test/reference/layeredTravelTimes.ts (Fermat least
 // time over finely sampled interfaces) with seeded pick noise of 0.3 ms. Tolerances from the issue:
 // mean absolute depth error under covered geophones at most 0.3 m on planar refractors, 0.6 m on
 // undulating ones, for the recommended profile (each method that covers: 1.5 times that).
-interface Case {
-  name: string;
-  section: LayeredSection;
-  sources: number[];
-  receivers: number[];
-  depth: ((x: number) => number)[];
+interface Case extends LineCase {
+  /** Mean absolute depth error allowed, in metres. */
   tolerance: number;
 }
 const tan = (degrees: number) => Math.tan((degrees * Math.PI) / 180);

@@ -16,6 +16,16 @@ export interface LayeredSection {
   velocities: number[];
 }
 
+/** A test line over a section: where the sources and receivers are, and the true refractor depths. */
+export interface LineCase {
+  name: string;
+  section: LayeredSection;
+  sources: number[];
+  receivers: number[];
+  /** True depth of each refractor below the ground at x, in metres. */
+  depth: ((x: number) => number)[];
+}
+
 export function firstArrivals(section: LayeredSection, sourceX: number, receiverXs: number[], span: [number, number], step = 0.1): number[] {
   const [x0, x1] = span;
   const count = Math.round((x1 - x0) / step) + 1;
