@@ -10,7 +10,7 @@ import { siteSummary } from './siteSummary.js';
  *
  * @param unit - display unit of lengths (velocities follow: m/s or ft/s)
  */
-export function summary(result: InterpretationResult, unit: LengthUnit, extraSections: string[] = []): string {
+export function summary(result: InterpretationResult, unit: LengthUnit): string {
   const len = (m: number) => fromMetres(m, unit);
   const vel = (mps: number) => fromMetres(mps, unit);
   const vLabel = velocityLabel(unit);
@@ -71,7 +71,6 @@ export function summary(result: InterpretationResult, unit: LengthUnit, extraSec
   }
   if (result.site) out.push(...siteSummary(result.site, unit));
   else if (result.wave === 'P') out.push('Site class: not computed. Vs cannot be had from Vp alone: give --poisson or --vp-vs to estimate it, or interpret an S-wave line.', '');
-  out.push(...extraSections);
   const general = result.warnings;
   out.push(general.length === 0 ? 'Warnings: none' : `Warnings (${general.length})`);
   for (const w of general) out.push(`  - [${w.code}] ${w.message}`);
