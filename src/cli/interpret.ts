@@ -2,7 +2,7 @@ import { InputError } from '../core/errors.js';
 import { WarningLog } from '../core/warnings.js';
 import { readFirstBreaks } from '../io/firstBreaksCsv.js';
 import { depthsCsv } from '../io/depthsCsv.js';
-import { interpretationJson } from '../io/interpretationJson.js';
+import { INTERPRETATION_SCHEMA, interpretationJson } from '../io/interpretationJson.js';
 import { pickTableCsv, unpickedSummary } from '../io/pickTable.js';
 import { interpret, receiverGround, type InterpretationResult, type InterpretOptions } from '../interpret.js';
 import { summary } from '../report/summary.js';
@@ -109,7 +109,7 @@ export function interpretCommand(args: string[], io: CliIo): number {
       if (!(error instanceof InputError) || positionals.length === 1) throw error;
       failed++;
       io.stderr(`hammerline: ${error.message}\n`);
-      if (values.json) documents.push({ schema: 'hammerline/interpretation@1', file, error: { message: error.message } });
+      if (values.json) documents.push({ schema: INTERPRETATION_SCHEMA, file, error: { message: error.message } });
       else texts.push(`hammerline: ${file}: not interpreted (see the message on stderr)\n`);
     }
   });

@@ -14,11 +14,6 @@ export function fromMetres(value: number, unit: LengthUnit): number {
   return unit === 'ft' ? value / METRES_PER_FOOT : value;
 }
 
-/** Unit label for lengths ("m" or "ft"). */
-export function lengthLabel(unit: LengthUnit): string {
-  return unit;
-}
-
 /** Unit label for velocities ("m/s" or "ft/s"). */
 export function velocityLabel(unit: LengthUnit): string {
   return unit === 'ft' ? 'ft/s' : 'm/s';

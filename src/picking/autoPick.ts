@@ -94,7 +94,7 @@ export function pickRecord(traces: PickTrace[], options: PickOptions = {}): Trac
  * A spike departs by more than six robust deviations (1.4826 × the median departure) and more than
  * max(5 samples, 2 ms). Removed worst first and the rest judged again, up to a fifth of the picks.
  */
-export function localSpikes(x: number[], y: number[], dt: number): number[] {
+function localSpikes(x: number[], y: number[], dt: number): number[] {
   const out: number[] = [];
   const excluded = new Set<number>();
   // The line through up to three neighbours on one side, by Theil-Sen (the median of the pairwise
