@@ -1,4 +1,3 @@
-import { basename, extname } from 'node:path';
 import { InputError } from '../core/errors.js';
 import { linearAt } from '../core/interpolate.js';
 import type { Seg2Record } from '../io/seg2/types.js';
@@ -39,6 +38,16 @@ export interface PickRow {
   trace: number;
 }
 
+/**
+ * The file name without its folders and its last extension ("records/S1.seg2" -> "S1"), as
+ * node:path's basename(file, extname(file)) gives it, written out so the browser app can use it.
+ */
+export function fileStem(file: string): string {
+  const name = file.replace(/[\\/]+$/, '').split(/[\\/]/).pop() ?? file;
+  const dot = name.lastIndexOf('.');
+  return dot > 0 ? name.slice(0, dot) : name;
+}
+
 /** Ground elevation at x from a station table (linear interpolation, end values beyond). */
 export function stationElevation(stations: Stations, x: number): number {
   const rows = [...stations.rows].sort((a, b) => a.x - b.x);
@@ -60,7 +69,7 @@ function stationX(stations: Stations | undefined, number: number | undefined): n
  * @throws InputError naming the file, trace and field when a position is missing and not given
  */
 export function pickSeg2(record: Seg2Record, options: RecordPickOptions = {}): PickRow[] {
-  const sourceId = basename(record.file, extname(record.file));
+  const sourceId = fileStem(record.file);
   const geometry = record.traces.map((t) => {
     const sourceX = options.sourceX ?? t.sourceLocation?.[0] ?? stationX(options.stations, t.sourceStation);
     if (sourceX === undefined) {

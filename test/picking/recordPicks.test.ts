@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/core/errors.js';
 import { readSeg2 } from '../../src/io/seg2/read.js';
 import { readStations } from '../../src/io/stationsCsv.js';
-import { pickSeg2 } from '../../src/picking/recordPicks.js';
+import { fileStem, pickSeg2 } from '../../src/picking/recordPicks.js';
 import { writeSeg2 } from '../io/seg2/writeSeg2.js';
 import { causalTrace } from './syntheticRecord.js';
 
@@ -36,5 +36,17 @@ describe('pickSeg2 geometry', () => {
   it('readStations names the row and column of a bad value and a missing column', () => {
     expect(() => readStations('station,x,elev\n1,zero,3\n', 'st.csv')).toThrow(/st\.csv, row 2, column x: "zero" is not a number/);
     expect(() => readStations('station,x\n1,0\n', 'st.csv')).toThrow(/missing required column elev/);
+  });
+});
+
+describe('fileStem', () => {
+  it('fileStem gives the source id node:path gives (basename without its last extension)', async () => {
+    // Reference: Node's path.posix.basename(file, extname(file)), the rule the command line used.
+    const { posix } = await import('node:path');
+    for (const file of ['S1.seg2', 'records/S1.seg2', '/a/b/shot 7.SEG2', 'two.dots.sg2', 'noext', '.hidden', 'dir/.hidden', 'a/b.c/d']) {
+      expect(fileStem(file)).toBe(posix.basename(file, posix.extname(file)));
+    }
+    // Windows folders, as a browser may give them in a dropped path.
+    expect(fileStem('C:\\line\\S3.seg2')).toBe('S3');
   });
 });
