@@ -9,7 +9,7 @@ import { summary } from '../report/summary.js';
 import { checkShearSlowerThanP } from '../site/fromInterpretation.js';
 import { keyValue, lengthUnitOption, listOption, numberOption, parse, readInput, SITE_OPTIONS, siteOptions, waveOption } from './args.js';
 import { HELP } from './help.js';
-import type { CliIo } from './io.js';
+import { checkOutputPaths, type CliIo } from './io.js';
 import { GEOMETRY_OPTIONS, isSeg2, pickAll } from './records.js';
 import { toMetres } from '../core/units.js';
 
@@ -39,6 +39,8 @@ export function interpretCommand(args: string[], io: CliIo): number {
     return 0;
   }
   if (positionals.length === 0) throw new InputError({}, 'interpret needs at least one first-break table (FILE.csv)');
+  checkOutputPaths([...positionals, ...[values['p-line'], values.stations].filter((f): f is string => typeof f === 'string')],
+    [{ option: '-o', path: values.output as string | undefined }, { option: '--depths', path: values.depths as string | undefined }]);
   const unit = lengthUnitOption(values.units as string | undefined);
   const wave = waveOption(values.wave as string | undefined);
   const options: InterpretOptions = {

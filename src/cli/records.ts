@@ -7,7 +7,7 @@ import { readStations } from '../io/stationsCsv.js';
 import { pickSeg2, type PickRow, type RecordPickOptions } from '../picking/recordPicks.js';
 import { HELP } from './help.js';
 import { lengthUnitOption, listOption, numberOption, parse, readInput } from './args.js';
-import type { CliIo } from './io.js';
+import { checkOutputPaths, type CliIo } from './io.js';
 
 /** Options that place and pick shot records, shared by pick and interpret. */
 export const GEOMETRY_OPTIONS = {
@@ -67,6 +67,7 @@ export function pickCommand(args: string[], io: CliIo): number {
   const { values, positionals } = parse(args, { ...GEOMETRY_OPTIONS, output: { type: 'string', short: 'o' }, units: { type: 'string' }, quiet: { type: 'boolean', short: 'q' }, help: { type: 'boolean', short: 'h' } });
   if (values.help) { io.stdout(HELP); return 0; }
   if (positionals.length === 0) throw new InputError({}, 'pick needs at least one SEG-2 record (SHOT.seg2)');
+  checkOutputPaths([...positionals, ...(typeof values.stations === 'string' ? [values.stations] : [])], [{ option: '-o', path: values.output as string | undefined }]);
   const unit = lengthUnitOption(values.units as string | undefined);
   const rows = pickAll(positionals, values, unit, io);
   for (const sentence of unpickedSummary(rows)) io.stderr(`hammerline: ${sentence}\n`);
