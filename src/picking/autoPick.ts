@@ -73,7 +73,9 @@ export function pickRecord(traces: PickTrace[], options: PickOptions = {}): Trac
       ...members.filter(({ i, t }, k) => spikes.has(k) || fit.outliers.includes(clean.findIndex((m) => m.i === i)) || Math.abs(picks[i].time! - predict(Math.abs(t.offset))) > tolerance).map(({ i }) => i),
       ...traces.map((t, i) => ({ t, i })).filter(({ t, i }) => Math.sign(t.offset) === side && picks[i].status === 'no clear onset').map(({ i }) => i),
     ];
+    const nearSource = nearSourceArrivals(members.map(({ t, i }) => ({ i, x: Math.abs(t.offset), time: picks[i].time! })), new Set(candidates), predict, tolerance);
     for (const i of candidates) {
+      if (nearSource.has(i)) continue;
       const t = traces[i];
       const predicted = predict(Math.abs(t.offset));
       const again = pickNear(t, predicted, Math.max(3 * tolerance, 4e-3), options);
@@ -85,6 +87,47 @@ export function pickRecord(traces: PickTrace[], options: PickOptions = {}): Trac
     }
   }
   return picks;
+}
+
+/**
+ * Near-source picks judged against the shape every first-arrival curve has, not against the lines
+ * of the picks beyond them. A first-arrival curve is the lower envelope of straight lines (direct
+ * and head waves), so it is concave in offset and starts at the shot (t = 0 at offset 0); a concave
+ * curve lies above its chords and below the extension of its secants (Telford et al. 1990, ch. 4:
+ * a refracted line crosses the direct line at the crossover distance, where the slope drops). The
+ * few picks between the source and the first consistent pick (the direct wave of an off-end shot,
+ * before an early crossover) fall below the backward extension of the refracted lines, which is
+ * why the record fit alone calls them inconsistent. Such a pick is kept when it lies, within the
+ * tolerance, above the chord from the shot (0, 0) to the next kept pick (earlier than that is a
+ * pre-trigger spike or noise) and below both the secant through the next two kept picks extended
+ * back and the record's fitted curve (later than that is a late phase or a missed onset).
+ * Judged from the far end inwards, each kept pick becoming the next one's neighbour.
+ *
+ * @param members - picks of one side sorted by offset (x = absolute offset, in metres; time in s)
+ * @param candidates - trace indices found inconsistent with the record fit
+ * @returns trace indices of near-source candidates that are consistent after all
+ */
+export function nearSourceArrivals(members: { i: number; x: number; time: number }[], candidates: Set<number>, predict: (offset: number) => number, tolerance: number): Set<number> {
+  const kept = new Set<number>();
+  let run = 0;
+  while (run < members.length && candidates.has(members[run].i)) run++;
+  if (run === 0 || run + 2 > members.length) return kept;
+  // The two nearest kept picks beyond the current one, nearest first.
+  const next = [members[run], members[run + 1]];
+  for (let k = run - 1; k >= 0; k--) {
+    const m = members[k];
+    const [a, b] = next;
+    if (m.x <= 0 || a.x <= m.x || b.x <= a.x) continue;
+    const chord = (a.time * m.x) / a.x;
+    const secant = a.time + ((b.time - a.time) * (m.x - a.x)) / (b.x - a.x);
+    const upper = Math.min(secant, predict(m.x));
+    if (m.time >= chord - tolerance && m.time <= upper + tolerance && m.time > 0) {
+      kept.add(m.i);
+      next[1] = a;
+      next[0] = m;
+    }
+  }
+  return kept;
 }
 
 /**
