@@ -64,7 +64,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
 
   const layerCount = assignLayers(fits, spacing, log);
   const layers: Layer[] = layerVelocities(fits, layerCount, log);
-  history.push({ step: 'layers', parameters: { layers: layers.length, receiverSpacing_m: spacing, trueVelocity: 'Telford et al. 1990 §4.3 (up/down-dip)' } });
+  history.push({ step: 'layers', parameters: { layers: layers.length, receiverSpacing_m: spacing, trueVelocity: 'Johnson 1976 plane dipping layers (up/down-dip)' } });
   checkLayerCautions(layers, wave, log);
 
   const usable = usableLayers(layers);

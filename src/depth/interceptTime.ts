@@ -2,6 +2,7 @@ import { propagate } from '../core/propagate.js';
 import { weightedMean } from '../core/stats.js';
 import type { BranchFit, Layer, RefractorPoint } from '../core/types.js';
 import type { WarningLog } from '../core/warnings.js';
+import { verticalThickness } from '../fit/dippingLayers.js';
 
 /**
  * Thicknesses of the layers above refractor n from its intercept time, for flat layers
@@ -34,10 +35,13 @@ export function layerThickness(interceptTime: number, upper: number[], velocitie
 
 /**
  * Intercept-time depths to every refractor under every source. Each branch's intercept gives the
- * thickness measured perpendicular to the refractor at the source; the two branches of a source are
- * combined by inverse-variance weighting, and thickness is turned into vertical depth with the
- * refractor dip, z = h / cos δ (Telford et al. 1990, §4.3). Standard errors propagate the
- * intercept and velocity standard errors (delta method).
+ * vertical thickness of each layer under the source for plane dipping layers (Johnson 1976,
+ * Geophysics 41, 418-424; see fit/dippingLayers.ts): with one refractor this is the thickness
+ * measured perpendicular to it, h = t V₁ / (2 cos θ), turned into vertical depth with its dip,
+ * z = h / cos δ (Telford et al. 1990, §4.3); with every dip zero it is the flat-layer formula.
+ * Layers of unknown dip are taken as flat. The two branches of a source are combined by
+ * inverse-variance weighting. Standard errors propagate the intercept, velocity and dip standard
+ * errors (delta method).
  *
  * @returns points[k-1] = points on refractor k (under layer k), one per source where it is seen
  */
@@ -47,6 +51,8 @@ export function interceptTimeDepths(fits: BranchFit[], layers: Layer[], warnings
   if (refractorCount < 1 || layers[0].index !== 1) return result;
   const velocities = layers.map((l) => l.velocity);
   const velocitySes = layers.map((l) => l.velocitySe);
+  const dips = layers.map((l) => ((l.dipDeg ?? 0) * Math.PI) / 180);
+  const dipSes = layers.map((l) => ((l.dipSeDeg ?? 0) * Math.PI) / 180);
   const bySource = new Map<string, BranchFit[]>();
   for (const f of fits) {
     if (!bySource.has(f.branch.sourceId)) bySource.set(f.branch.sourceId, []);
@@ -64,9 +70,11 @@ export function interceptTimeDepths(fits: BranchFit[], layers: Layer[], warnings
       for (const fit of seesDirect) {
         const segment = fit.segments.find((s) => s.layer === n + 1);
         if (segment === undefined) continue;
-        // Parameters: the intercept, the velocities V1..Vn+1, the thicknesses above.
-        const f = (p: number[]) => layerThickness(p[0], p.slice(n + 2), p.slice(1, n + 2)) ?? NaN;
-        const params = [segment.intercept, ...velocities.slice(0, n + 1), ...thicknesses];
+        // Parameters: the intercept, the velocities V1..Vn+1, the dips of refractors 1..n (radians),
+        // the vertical thicknesses above.
+        const f = (p: number[]) => verticalThickness(p[0], p.slice(2 * n + 2), p[1],
+          p.slice(2, n + 2).map((velocity, j) => ({ velocity, dip: p[n + 2 + j] }))) ?? NaN;
+        const params = [segment.intercept, ...velocities.slice(0, n + 1), ...dips.slice(1, n + 1), ...thicknesses];
         const h = f(params);
         if (!Number.isFinite(h)) {
           warnings.add('intercept-depth',
@@ -74,15 +82,14 @@ export function interceptTimeDepths(fits: BranchFit[], layers: Layer[], warnings
             { layer: n + 1 });
           continue;
         }
-        estimates.push({ h, se: propagate(f, params, [segment.interceptSe, ...velocitySes.slice(0, n + 1), ...thicknessSes]) });
+        estimates.push({ h, se: propagate(f, params, [segment.interceptSe, ...velocitySes.slice(0, n + 1), ...dipSes.slice(1, n + 1), ...thicknessSes]) });
       }
       const combined = weightedMean(estimates.map((e) => e.h), estimates.map((e) => e.se));
       if (combined === undefined) break;
       thicknesses.push(combined.mean);
       thicknessSes.push(combined.se);
-      const dip = ((layers[n].dipDeg ?? 0) * Math.PI) / 180;
-      depth += combined.mean / Math.cos(dip);
-      const depthSe = Math.sqrt(thicknessSes.reduce((a, se, j) => a + (se / Math.cos(((layers[j + 1].dipDeg ?? 0) * Math.PI) / 180)) ** 2, 0));
+      depth += combined.mean;
+      const depthSe = Math.sqrt(thicknessSes.reduce((a, se) => a + se ** 2, 0));
       result[n - 1].push({ x: sourceX, depth, elev: sourceElev - depth, depthSe, sourceId });
     }
   }

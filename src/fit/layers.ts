@@ -2,6 +2,7 @@ import { SimpleLinearRegression } from 'ml-regression';
 import { propagate } from '../core/propagate.js';
 import { median, weightedMean } from '../core/stats.js';
 import { startsAtSource } from './branches.js';
+import { solveInterface, type PlaneInterface } from './dippingLayers.js';
 import type { BranchFit, Layer, Segment } from '../core/types.js';
 import type { WarningLog } from '../core/warnings.js';
 
@@ -135,12 +136,15 @@ function matchInOrder(slowness: number[], layerSlowness: number[], layerCount: n
  * Layer 1 (the direct wave): the travel-time slope against straight-line source-receiver distance
  * over all direct-wave picks, branch by branch, combined by inverse-variance weighting.
  *
- * Deeper layers: the true velocity and dip from the mean forward and reverse apparent slownesses
- * sf and sr (Telford, Geldart & Sheriff 1990, §4.3): with V1 the top-layer velocity,
- * θ = ½[asin(V1·sf) + asin(V1·sr)], δ = ½[asin(V1·sf) − asin(V1·sr)], V = V1 / sin θ. This is
- * exact for planar refractors parallel to each other (the ray parameter along the surface is
- * conserved through parallel layers). δ is positive when the refractor deepens towards +x.
- * A layer seen from one side only keeps its apparent velocity, with a warning.
+ * Deeper layers: the true velocity and dip of each refractor from the mean forward and reverse
+ * apparent slownesses sf and sr of its head waves, by the recursion of Johnson (1976) for plane
+ * dipping layers that need not be parallel (see dippingLayers.ts): the rays are traced down from
+ * the ground through the refractors above, already solved, to the critical angle at this one.
+ * For the first refractor this is Telford, Geldart & Sheriff (1990), §4.3:
+ * θ = ½[asin(V1·sf) + asin(V1·sr)], δ = ½[asin(V1·sf) − asin(V1·sr)], V = V1 / sin θ.
+ * δ is positive when the refractor deepens towards +x. Standard errors by the delta method over
+ * V1 and every apparent slowness the recursion uses. A layer seen from one side only keeps its
+ * apparent velocity, with a warning, and is taken as flat-topped by the layers below it.
  */
 export function layerVelocities(fits: BranchFit[], layerCount: number, warnings: WarningLog): Layer[] {
   const layers: Layer[] = [];
@@ -165,6 +169,9 @@ export function layerVelocities(fits: BranchFit[], layerCount: number, warnings:
     v1Se = v1Fit.se / v1Fit.mean ** 2;
     layers.push({ index: 1, velocity: v1, velocitySe: v1Se, segmentCount: direct.length, reversed: hasBothSides(fits, 1), throughOrigin });
   }
+  // The refractors above the current one, for the recursion: solved from their apparent
+  // slownesses (whose errors propagate), or fixed (apparent velocity, taken as flat).
+  const above: Above[] = [];
   for (let k = v1 === undefined ? 1 : 2; k <= layerCount; k++) {
     const side = (name: 'forward' | 'reverse') => {
       const segs = fits.filter((f) => f.branch.side === name).flatMap((f) => f.segments.filter((s) => s.layer === k));
@@ -174,30 +181,31 @@ export function layerVelocities(fits: BranchFit[], layerCount: number, warnings:
     const rev = side('reverse');
     const count = fits.reduce((n, f) => n + f.segments.filter((s) => s.layer === k).length, 0);
     if (count === 0) continue;
-    if (fwd !== undefined && rev !== undefined && v1 !== undefined && v1 * fwd.mean <= 1 && v1 * rev.mean <= 1) {
-      const trueVelocity = ([sf, sr, top]: number[]) => top / Math.sin((Math.asin(Math.min(1, top * sf)) + Math.asin(Math.min(1, top * sr))) / 2);
-      const dip = ([sf, sr, top]: number[]) => ((Math.asin(Math.min(1, top * sf)) - Math.asin(Math.min(1, top * sr))) / 2) * (180 / Math.PI);
-      const params = [fwd.mean, rev.mean, v1];
-      const ses = [fwd.se, rev.se, v1Se];
+    const solved = fwd !== undefined && rev !== undefined && v1 !== undefined
+      ? recursion([...above, { slowness: [fwd.mean, rev.mean], slownessSe: [fwd.se, rev.se] }], v1, v1Se)
+      : undefined;
+    if (fwd !== undefined && rev !== undefined && solved !== undefined) {
       layers.push({
         index: k,
-        velocity: trueVelocity(params),
-        velocitySe: propagate(trueVelocity, params, ses),
-        dipDeg: dip(params),
-        dipSeDeg: propagate(dip, params, ses),
+        velocity: solved.interface.velocity,
+        velocitySe: propagate((p) => solved.at(p)?.velocity ?? NaN, solved.params, solved.ses),
+        dipDeg: solved.interface.dip * (180 / Math.PI),
+        dipSeDeg: propagate((p) => (solved.at(p)?.dip ?? NaN) * (180 / Math.PI), solved.params, solved.ses),
         forwardApparent: 1 / fwd.mean,
         reverseApparent: 1 / rev.mean,
         segmentCount: count,
         reversed: true,
       });
+      above.push({ slowness: [fwd.mean, rev.mean], slownessSe: [fwd.se, rev.se] });
     } else if (fwd !== undefined && rev !== undefined) {
-      // Slower than the top layer on a side: the angles are undefined; use the harmonic mean.
+      // Slower than a layer above on a side, or no top-layer velocity: no ray fits; use the harmonic mean.
       const harmonic = ([sf, sr]: number[]) => 2 / (sf + sr);
       const params = [fwd.mean, rev.mean];
       layers.push({
         index: k, velocity: harmonic(params), velocitySe: propagate(harmonic, params, [fwd.se, rev.se]),
         forwardApparent: 1 / fwd.mean, reverseApparent: 1 / rev.mean, segmentCount: count, reversed: true,
       });
+      above.push({ fixed: { velocity: harmonic(params), dip: 0 } });
     } else {
       const one = (fwd ?? rev)!;
       layers.push({
@@ -205,12 +213,46 @@ export function layerVelocities(fits: BranchFit[], layerCount: number, warnings:
         forwardApparent: fwd ? 1 / fwd.mean : undefined, reverseApparent: rev ? 1 / rev.mean : undefined,
         segmentCount: count, reversed: false,
       });
+      above.push({ fixed: { velocity: 1 / one.mean, dip: 0 } });
       warnings.add('unreversed-layer',
         `layer ${k} is seen only by ${fwd ? 'forward (+x)' : 'reverse (-x)'} branches; its velocity ${Math.round(1 / one.mean)} m/s is apparent, not true, and its dip is unknown. Shoot the other end to reverse it`,
         { layer: k });
     }
   }
   return layers;
+}
+
+/** A refractor above the one being solved: from its apparent slownesses, or fixed. */
+type Above = { slowness: [number, number]; slownessSe: [number, number] } | { fixed: PlaneInterface };
+
+/**
+ * The Johnson (1976) recursion down to the last entry of `chain`, as a function of the parameter
+ * vector [V1, sf, sr of each entry solved from slownesses] (for the delta method), with its value
+ * at the measured parameters.
+ */
+function recursion(chain: Above[], v1: number, v1Se: number) {
+  const params = [v1];
+  const ses = [v1Se];
+  for (const entry of chain) {
+    if ('slowness' in entry) { params.push(...entry.slowness); ses.push(...entry.slownessSe); }
+  }
+  const at = (p: number[]): PlaneInterface | undefined => {
+    const interfaces: PlaneInterface[] = [];
+    let next = 1;
+    for (const entry of chain) {
+      let solved: PlaneInterface | undefined;
+      if ('fixed' in entry) solved = entry.fixed;
+      else {
+        solved = solveInterface(p[0], interfaces, p[next], p[next + 1]);
+        next += 2;
+      }
+      if (solved === undefined) return undefined;
+      interfaces.push(solved);
+    }
+    return interfaces[interfaces.length - 1];
+  };
+  const value = at(params);
+  return value === undefined ? undefined : { interface: value, at, params, ses };
 }
 
 function hasBothSides(fits: BranchFit[], layer: number): boolean {
