@@ -85,7 +85,7 @@ export function interpretCommand(args: string[], io: CliIo): number {
     const name = records.length === 1 ? records[0] : `${records[0]} and ${records.length - 1} more record${records.length > 2 ? 's' : ''}`;
     const log = new WarningLog();
     for (const sentence of unpickedSummary(rows)) log.add('unpicked-traces', sentence);
-    const table = readFirstBreaks(pickTableCsv(rows), name, log, { wave });
+    const table = readFirstBreaks(pickTableCsv(rows, 'm', false), name, log, { wave });
     const result = interpret(table, options, log);
     if (values.depths) io.writeText(values.depths as string, depthsCsv(result, receiverGround(table), unit));
     const output = values.json ? JSON.stringify(interpretationJson(result, { picking: { records, picked: rows.filter((r) => r.time !== undefined).length, traces: rows.length } }), null, 2) + '\n' : summary(result, unit);

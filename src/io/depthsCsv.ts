@@ -1,5 +1,5 @@
 import { fromMetres, type LengthUnit } from '../core/units.js';
-import { decimal } from './numbers.js';
+import { csvComment, csvNumber as decimal, csvText } from './csvCell.js';
 import type { InterpretationResult } from '../interpret.js';
 
 /**
@@ -11,21 +11,20 @@ import type { InterpretationResult } from '../interpret.js';
  */
 export function depthsCsv(result: InterpretationResult, receivers: { x: number; elev: number }[], unit: LengthUnit = 'm'): string {
   const len = (m: number | undefined) => (m === undefined ? undefined : fromMetres(m, unit));
-  const quote = (text: string) => (/[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text);
   const lines: string[] = [];
-  lines.push(`# hammerline depth table: ${result.file}; lengths in ${unit === 'ft' ? 'feet' : 'metres'}, velocities in ${unit === 'ft' ? 'ft/s' : 'm/s'}`);
-  lines.push(`# layers: ${result.layers.map((l) => `${l.index}: ${Math.round(len(l.velocity)!)} ± ${Math.round(len(l.velocitySe)!)}`).join('; ')}`);
-  for (const c of result.cautions) lines.push(`# caution: ${c.message}`);
-  for (const w of result.warnings) lines.push(`# warning [${w.code}]: ${w.message.replace(/\n/g, ' ')}`);
+  lines.push(csvComment(`hammerline depth table: ${result.file}; lengths in ${unit === 'ft' ? 'feet' : 'metres'}, velocities in ${unit === 'ft' ? 'ft/s' : 'm/s'}`));
+  lines.push(csvComment(`layers: ${result.layers.map((l) => `${l.index}: ${Math.round(len(l.velocity)!)} ± ${Math.round(len(l.velocitySe)!)}`).join('; ')}`));
+  for (const c of result.cautions) lines.push(csvComment(`caution: ${c.message}`));
+  for (const w of result.warnings) lines.push(csvComment(`warning [${w.code}]: ${w.message}`));
   const header = ['x', 'ground_elev'];
   for (const r of result.refractors) header.push(`depth_${r.index}`, `depth_${r.index}_se`, `elev_${r.index}`, `method_${r.index}`);
-  lines.push(header.join(','));
+  lines.push(header.map((h) => csvText(h)).join(','));
   for (const receiver of receivers) {
     const cells = [decimal(len(receiver.x), 3), decimal(len(receiver.elev), 3)];
     for (const r of result.refractors) {
       const i = r.points.findIndex((p) => p.x === receiver.x);
       const p = i >= 0 ? r.points[i] : undefined;
-      cells.push(decimal(len(p?.depth), 3), decimal(len(p?.depthSe), 3), decimal(len(p?.elev), 3), p ? quote(r.pointMethods[i]) : '');
+      cells.push(decimal(len(p?.depth), 3), decimal(len(p?.depthSe), 3), decimal(len(p?.elev), 3), p ? csvText(r.pointMethods[i]) : '');
     }
     lines.push(cells.join(','));
   }

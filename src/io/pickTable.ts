@@ -1,26 +1,27 @@
 import { fromMetres, type LengthUnit } from '../core/units.js';
-import { decimal } from './numbers.js';
+import { csvNumber as decimal, csvText } from './csvCell.js';
 import type { PickRow } from '../picking/recordPicks.js';
 
 /**
  * The first-break table (CSV, the DESIGN.md contract) of automatic picks, with the confidence,
  * the source file and the trace number of each pick. Unpicked traces are not rows (the caller
- * reports them). Elevation columns are written when every row has them.
+ * reports them). Elevation columns are written when every row has them. Text cells are made safe for
+ * spreadsheets (csvText) unless `neutralise` is false, which only the in-memory hand-over from
+ * picking to interpretation uses, so that ids stay as the records name them.
  */
-export function pickTableCsv(rows: PickRow[], unit: LengthUnit = 'm'): string {
+export function pickTableCsv(rows: PickRow[], unit: LengthUnit = 'm', neutralise = true): string {
   const picked = rows.filter((r) => r.time !== undefined);
   const withElevations = picked.length > 0 && picked.every((r) => r.sourceElev !== undefined && r.receiverElev !== undefined);
   const header = ['source_id', 'source_x', ...(withElevations ? ['source_elev'] : []), 'receiver_x', ...(withElevations ? ['receiver_elev'] : []), 'time_ms', 'confidence', 'source_file', 'trace'];
-  const quote = (text: string) => (/[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text);
   const lines = picked.map((r) => [
-    quote(r.sourceId),
+    csvText(r.sourceId, neutralise),
     decimal(fromMetres(r.sourceX, unit), 4),
     ...(withElevations ? [decimal(fromMetres(r.sourceElev!, unit), 4)] : []),
     decimal(fromMetres(r.receiverX, unit), 4),
     ...(withElevations ? [decimal(fromMetres(r.receiverElev!, unit), 4)] : []),
     decimal(r.time! * 1e3, 4),
     decimal(r.confidence, 3),
-    quote(r.file),
+    csvText(r.file, neutralise),
     String(r.trace),
   ].join(','));
   return [header.join(','), ...lines].join('\n') + '\n';
