@@ -1,0 +1,369 @@
+import { linearAt } from '../core/interpolate.js';
+import { choleskyFactor, choleskyInverse, choleskySolve } from './cholesky.js';
+import { elevationIndex, gradientIndex, packParameters, parameterCount, sampleNodeSection, unpackParameters, velocityIndex, type NodeSection } from './nodeSection.js';
+import { sectionPaths, type Shot, type SparseRow } from './sectionPaths.js';
+
+/** One first-break pick for the inversion, in SI units (metres, elevations up, seconds). */
+export interface InversionPick {
+  sourceX: number;
+  sourceZ: number;
+  receiverX: number;
+  receiverZ: number;
+  time: number;
+}
+
+/** Options of the layered inversion. */
+export interface LayeredInversionOptions {
+  /**
+   * Weight of the smoothness of each refractor, dimensionless; default 1. The penalty is the
+   * second difference of the refractor's elevation from node to node, turned into a delay time by
+   * the vertical slowness of the layer above (√(1/V₁² − 1/V₂²)) and weighted like one pick:
+   * with weight 1, a bend worth 1 ms of delay costs as much as a 1 ms misfit of one pick. 0 lets
+   * the refractor follow every pick; larger values give a smoother refractor.
+   */
+  smoothing?: number;
+  /** Spacing of the refractor nodes, in metres; default the geophone spacing (a node under every geophone). */
+  nodeSpacing?: number;
+  /** Let each layer's velocity change linearly along the line; default false. */
+  lateralGradient?: boolean;
+  /** Largest number of accepted Levenberg-Marquardt steps; default 15. */
+  maxIterations?: number;
+}
+
+/** Where the inversion starts: the ground, a depth profile per refractor, layer velocities. */
+export interface InversionStart {
+  ground: (x: number) => number;
+  /** Start refractor elevations, top down, each as points along x (ascending). */
+  refractors: { x: number; elev: number }[][];
+  /** Start layer velocities, top down, in m/s (one more than the refractors). */
+  velocities: number[];
+  /** Receiver positions, ascending, in metres: depths are reported there. */
+  receiverXs: number[];
+  /** Geophone spacing, in metres. */
+  spacing: number;
+}
+
+/** A refractor of the inverted section at one receiver. */
+export interface InvertedPoint {
+  x: number;
+  depth: number;
+  elev: number;
+  depthSe: number;
+  /** True where least-time paths cross the refractor beside this receiver (so the picks, not only the smoothness, fix it). */
+  covered: boolean;
+}
+
+export interface LayeredInversion {
+  start: NodeSection;
+  section: NodeSection;
+  /** RMS of pick minus computed time over every pick, in seconds, for the start and the final section. */
+  rmsBefore: number;
+  rmsAfter: number;
+  /** Accepted steps. */
+  iterations: number;
+  stopReason: 'misfit stopped falling' | 'iteration limit' | 'no step lowers the misfit';
+  picks: number;
+  unknowns: number;
+  /** Effective number of unknowns the picks resolve (trace of the resolution matrix). */
+  effectiveUnknowns: number;
+  /** Standard errors of the layer velocities (m/s) and gradients ((m/s)/m), from the model covariance scaled by the misfit. */
+  velocitySe: number[];
+  gradientSe: number[];
+  /** Each refractor at each receiver. */
+  profiles: InvertedPoint[][];
+  /** Residuals (pick minus computed), in seconds, in the order of the picks. */
+  residuals: Float64Array;
+}
+
+const MIN_NODE_THICKNESS = 0.2;
+// Marquardt's update of the damping: divided by 10 after a step that lowers the misfit, multiplied
+// by 10 after one that does not (Marquardt 1963, §4, with ν = 10).
+const DAMPING_FACTOR = 10;
+const RELATIVE_STOP = 1e-3;
+
+/**
+ * Layered-model inversion of first breaks: refractor elevations at nodes along the line and layer
+ * velocities (optionally a lateral gradient per layer) adjusted by damped least squares
+ * (Levenberg 1944; Marquardt 1963, with Marquardt's diagonal scaling) so that first arrivals
+ * computed through the section (model/sectionPaths: direct, refracted and head waves by least
+ * time over the sampled refractors, derivatives along the least-time paths) fit every pick, those
+ * of sources off the ends included. A smoothness penalty on each refractor (second differences at
+ * the nodes) keeps the relief to what the picks demand. Steps stop when the misfit falls by less
+ * than 0.1 %. Standard errors from the model covariance s²(JᵀJ + RᵀR)⁻¹, s² the residual variance
+ * over the picks less the effective number of unknowns.
+ *
+ * @param picks - every pick to fit, in seconds
+ * @param start - the start section (usually the recommended depth profiles)
+ * @throws RangeError for fewer than two picks, no refractor, or velocities not one more than the refractors
+ */
+export function layeredInversion(picks: InversionPick[], start: InversionStart, options: LayeredInversionOptions = {}): LayeredInversion {
+  const refractors = start.refractors.length;
+  if (refractors === 0) throw new RangeError('layeredInversion needs at least one refractor');
+  if (start.velocities.length !== refractors + 1) throw new RangeError(`layeredInversion needs ${refractors + 1} layer velocities, got ${start.velocities.length}`);
+  if (picks.length < 2) throw new RangeError(`layeredInversion needs at least two picks, got ${picks.length}`);
+  const smoothing = options.smoothing ?? 1;
+  if (!(smoothing >= 0)) throw new RangeError(`layeredInversion smoothing must be 0 or more, got ${smoothing}`);
+  const lateral = options.lateralGradient ?? false;
+  const maxIterations = options.maxIterations ?? 15;
+  const spacing = start.spacing;
+  const nodeSpacing = options.nodeSpacing ?? spacing;
+  if (!(nodeSpacing > 0)) throw new RangeError(`layeredInversion node spacing must be positive, got ${nodeSpacing}`);
+
+  const { shots, order } = groupShots(picks);
+  const allX = picks.flatMap((p) => [p.sourceX, p.receiverX]);
+  const first = start.receiverXs[0];
+  const last = start.receiverXs[start.receiverXs.length - 1];
+  const nodeXs = nodePositions(first, last, Math.min(...allX), Math.max(...allX), nodeSpacing);
+  const span: [number, number] = [Math.min(...allX) - 2 * spacing, Math.max(...allX) + 2 * spacing];
+  const step = Math.max(spacing / 2, (span[1] - span[0]) / 600);
+  const initial: NodeSection = {
+    ground: start.ground,
+    nodeXs,
+    xRef: (first + last) / 2,
+    elevations: start.refractors.map((points) => Float64Array.from(nodeXs, (x) => linearAt(points.map((p) => p.x), points.map((p) => p.elev), x))),
+    velocities: Float64Array.from(start.velocities),
+    gradients: new Float64Array(refractors + 1),
+  };
+  const nodes = nodeXs.length;
+  const unknowns = parameterCount(refractors, nodes, lateral);
+  const halfSpan = (span[1] - span[0]) / 2;
+  const project = (p: Float64Array) => projectParameters(p, initial, lateral, halfSpan);
+  const p0 = project(packParameters(initial, lateral));
+  const startSection = unpackParameters(initial, p0, lateral);
+
+  // The smoothness rows R (constant): RᵀR, dense.
+  const rtr = smoothnessNormal(start.velocities, refractors, nodes, unknowns, smoothing);
+  const regularisation = (p: Float64Array) => quadratic(rtr, p, unknowns);
+
+  const evaluate = (p: Float64Array, derivatives: boolean) => {
+    const section = unpackParameters(initial, p, lateral);
+    const paths = sectionPaths(sampleNodeSection(section, span, step), shots, derivatives, lateral);
+    const residuals = new Float64Array(picks.length);
+    let sum = 0;
+    order.forEach(([s, r], i) => {
+      residuals[i] = picks[i].time - paths.times[s][r];
+      sum += residuals[i] * residuals[i];
+    });
+    const rows = derivatives ? order.map(([s, r]) => paths.rows![s][r]) : undefined;
+    return { residuals, dataMisfit: sum, rows, crossings: paths.crossings };
+  };
+
+  let p = p0;
+  let current = evaluate(p, true);
+  let objective = current.dataMisfit + regularisation(p);
+  const rmsBefore = Math.sqrt(current.dataMisfit / picks.length);
+  let lambda = 1e-2;
+  let iterations = 0;
+  let stopReason: LayeredInversion['stopReason'] = 'iteration limit';
+  while (iterations < maxIterations) {
+    const { normal, gradient } = normalEquations(current.rows!, current.residuals, rtr, p, unknowns);
+    let accepted: { p: Float64Array; objective: number } | undefined;
+    while (lambda < 1e8) {
+      const trial = dampedStep(normal, gradient, lambda, unknowns);
+      if (trial !== undefined) {
+        const next = project(p.map((v, i) => v + trial[i]));
+        const misfit = evaluate(next, false).dataMisfit + regularisation(next);
+        if (misfit < objective) {
+          accepted = { p: next, objective: misfit };
+          lambda = Math.max(lambda / DAMPING_FACTOR, 1e-7);
+          break;
+        }
+      }
+      lambda *= DAMPING_FACTOR;
+    }
+    if (accepted === undefined) { stopReason = 'no step lowers the misfit'; break; }
+    const decrease = (objective - accepted.objective) / objective;
+    p = accepted.p;
+    objective = accepted.objective;
+    current = evaluate(p, true);
+    iterations++;
+    if (decrease < RELATIVE_STOP) { stopReason = 'misfit stopped falling'; break; }
+  }
+
+  // Covariance at the final section.
+  const { normal } = normalEquations(current.rows!, current.residuals, rtr, p, unknowns);
+  const jtj = normal.map((v, i) => v - rtr[i]);
+  const ridge = 1e-12 * maxDiagonal(normal, unknowns);
+  for (let i = 0; i < unknowns; i++) normal[i * unknowns + i] += ridge;
+  const factor = choleskyFactor(normal, unknowns);
+  const covariance = factor === undefined ? undefined : choleskyInverse(factor, unknowns);
+  let effective = unknowns;
+  if (covariance !== undefined) {
+    effective = 0;
+    for (let i = 0; i < unknowns; i++) for (let k = 0; k < unknowns; k++) effective += covariance[i * unknowns + k] * jtj[k * unknowns + i];
+  }
+  const freedom = picks.length - effective;
+  const variance = freedom > 1 ? current.dataMisfit / freedom : NaN;
+  const cov = (i: number, j: number) => (covariance === undefined ? NaN : variance * covariance[i * unknowns + j]);
+
+  const section = unpackParameters(initial, p, lateral);
+  const profiles = section.elevations.map((elev, k) => start.receiverXs.map((x) => {
+    const { a, t } = bracket(nodeXs, x);
+    const b = Math.min(a + 1, nodes - 1);
+    const e = (1 - t) * elev[a] + t * elev[b];
+    const ia = elevationIndex(nodes, k, a);
+    const ib = elevationIndex(nodes, k, b);
+    const varianceAt = (1 - t) ** 2 * cov(ia, ia) + 2 * t * (1 - t) * cov(ia, ib) + t * t * cov(ib, ib);
+    const crossing = current.crossings![k];
+    const covered = (1 - t) * crossing[a] + t * crossing[b] >= 1;
+    const ground = start.ground(x);
+    return { x, depth: ground - e, elev: e, depthSe: Math.sqrt(Math.max(0, varianceAt)), covered };
+  }));
+  return {
+    start: startSection,
+    section,
+    rmsBefore,
+    rmsAfter: Math.sqrt(current.dataMisfit / picks.length),
+    iterations,
+    stopReason,
+    picks: picks.length,
+    unknowns,
+    effectiveUnknowns: effective,
+    velocitySe: Array.from({ length: refractors + 1 }, (_, m) => Math.sqrt(cov(velocityIndex(refractors, nodes, m), velocityIndex(refractors, nodes, m)))),
+    gradientSe: Array.from({ length: refractors + 1 }, (_, m) => (lateral ? Math.sqrt(cov(gradientIndex(refractors, nodes, m), gradientIndex(refractors, nodes, m))) : 0)),
+    profiles,
+    residuals: current.residuals,
+  };
+}
+
+/** Picks grouped into shots (one per source position and elevation), and each pick's (shot, receiver). */
+function groupShots(picks: InversionPick[]): { shots: Shot[]; order: [number, number][] } {
+  const byKey = new Map<string, number>();
+  const shots: Shot[] = [];
+  const order: [number, number][] = picks.map((p) => {
+    const key = `${p.sourceX}|${p.sourceZ}`;
+    let s = byKey.get(key);
+    if (s === undefined) {
+      s = shots.length;
+      byKey.set(key, s);
+      shots.push({ x: p.sourceX, z: p.sourceZ, receivers: [] });
+    }
+    shots[s].receivers.push({ x: p.receiverX, z: p.receiverZ });
+    return [s, shots[s].receivers.length - 1];
+  });
+  return { shots, order };
+}
+
+/**
+ * Node positions: from the first to the last receiver at about `spacing`, continued at the same
+ * spacing beyond them to cover the sources off the ends (their rays go down there).
+ */
+export function nodePositions(first: number, last: number, lowest: number, highest: number, spacing: number): Float64Array {
+  const inside = Math.max(1, Math.round((last - first) / spacing));
+  const step = (last - first) / inside || spacing;
+  const xs: number[] = [];
+  for (let x = first - step; x > lowest - step; x -= step) xs.unshift(x);
+  for (let i = 0; i <= inside; i++) xs.push(first + i * step);
+  for (let x = last + step; x < highest + step; x += step) xs.push(x);
+  return Float64Array.from(last === first ? [first] : xs);
+}
+
+/** Node interval a and the weight t of node a + 1 at x (end values held beyond the nodes). */
+function bracket(nodeXs: Float64Array, x: number): { a: number; t: number } {
+  const last = nodeXs.length - 1;
+  if (last === 0 || x <= nodeXs[0]) return { a: 0, t: 0 };
+  if (x >= nodeXs[last]) return { a: last - 1, t: 1 };
+  let a = 0;
+  while (nodeXs[a + 1] < x) a++;
+  return { a, t: (x - nodeXs[a]) / (nodeXs[a + 1] - nodeXs[a]) };
+}
+
+/**
+ * Keeps a trial section physical: each refractor at least MIN_NODE_THICKNESS below the ground and
+ * the refractor above at every node, velocities increasing downwards by at least 1 %, and a
+ * lateral gradient that keeps every velocity above half its value at the centre of the line.
+ */
+function projectParameters(p: Float64Array, like: NodeSection, lateral: boolean, halfSpan: number): Float64Array {
+  const refractors = like.elevations.length;
+  const nodes = like.nodeXs.length;
+  const out = Float64Array.from(p);
+  for (let j = 0; j < nodes; j++) {
+    let ceiling = like.ground(like.nodeXs[j]);
+    for (let k = 0; k < refractors; k++) {
+      const i = elevationIndex(nodes, k, j);
+      out[i] = Math.min(out[i], ceiling - MIN_NODE_THICKNESS);
+      ceiling = out[i];
+    }
+  }
+  for (let m = 0; m <= refractors; m++) {
+    const i = velocityIndex(refractors, nodes, m);
+    out[i] = Math.max(out[i], m === 0 ? 30 : 1.01 * out[velocityIndex(refractors, nodes, m - 1)]);
+    if (lateral) {
+      const gi = gradientIndex(refractors, nodes, m);
+      const limit = (0.5 * out[i]) / halfSpan;
+      out[gi] = Math.max(-limit, Math.min(limit, out[gi]));
+    }
+  }
+  return out;
+}
+
+/**
+ * RᵀR of the smoothness rows: for every refractor k and inner node j, the row
+ * w·qₖ·(z[j−1] − 2z[j] + z[j+1]), qₖ = √(1/Vₖ² − 1/Vₖ₊₁²) the vertical slowness that turns
+ * elevation into delay time (1/Vₖ where the layer below is not faster).
+ */
+function smoothnessNormal(velocities: number[], refractors: number, nodes: number, unknowns: number, weight: number): Float64Array {
+  const rtr = new Float64Array(unknowns * unknowns);
+  for (let k = 0; k < refractors; k++) {
+    const above = velocities[k];
+    const below = velocities[k + 1];
+    const q = below > above ? Math.sqrt(1 / above ** 2 - 1 / below ** 2) : 1 / above;
+    const scale = (weight * q) ** 2;
+    for (let j = 1; j + 1 < nodes; j++) {
+      const idx = [elevationIndex(nodes, k, j - 1), elevationIndex(nodes, k, j), elevationIndex(nodes, k, j + 1)];
+      const coef = [1, -2, 1];
+      for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) rtr[idx[a] * unknowns + idx[b]] += scale * coef[a] * coef[b];
+    }
+  }
+  return rtr;
+}
+
+/** pᵀ M p for a dense symmetric M. */
+function quadratic(m: Float64Array, p: Float64Array, n: number): number {
+  let sum = 0;
+  for (let i = 0; i < n; i++) {
+    if (p[i] === 0) continue;
+    let row = 0;
+    for (let j = 0; j < n; j++) row += m[i * n + j] * p[j];
+    sum += p[i] * row;
+  }
+  return sum;
+}
+
+/** JᵀJ + RᵀR and Jᵀr − RᵀR p (the negative half-gradient of the objective). */
+function normalEquations(rows: SparseRow[], residuals: Float64Array, rtr: Float64Array, p: Float64Array, n: number): { normal: Float64Array; gradient: Float64Array } {
+  const normal = Float64Array.from(rtr);
+  const gradient = new Float64Array(n);
+  rows.forEach((row, i) => {
+    const { index, value } = row;
+    const r = residuals[i];
+    for (let a = 0; a < index.length; a++) {
+      const ia = index[a];
+      const va = value[a];
+      gradient[ia] += va * r;
+      const base = ia * n;
+      for (let b = 0; b < index.length; b++) normal[base + index[b]] += va * value[b];
+    }
+  });
+  for (let i = 0; i < n; i++) {
+    let row = 0;
+    for (let j = 0; j < n; j++) row += rtr[i * n + j] * p[j];
+    gradient[i] -= row;
+  }
+  return { normal, gradient };
+}
+
+function maxDiagonal(m: Float64Array, n: number): number {
+  let max = 0;
+  for (let i = 0; i < n; i++) max = Math.max(max, m[i * n + i]);
+  return max;
+}
+
+/** The Levenberg-Marquardt step: (A + λ·diag(A)) δ = b, diag(A) floored so unseen unknowns stay damped. */
+function dampedStep(normal: Float64Array, gradient: Float64Array, lambda: number, n: number): Float64Array | undefined {
+  const damped = Float64Array.from(normal);
+  const floor = 1e-9 * maxDiagonal(normal, n);
+  for (let i = 0; i < n; i++) damped[i * n + i] += lambda * Math.max(normal[i * n + i], floor);
+  const factor = choleskyFactor(damped, n);
+  return factor === undefined ? undefined : choleskySolve(factor, n, gradient);
+}
