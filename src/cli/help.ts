@@ -6,6 +6,7 @@ export const HELP = `hammerline ${VERSION}: seismic-refraction interpretation fo
 Usage:
   hammerline interpret FILE.csv [FILE.csv ...] [options]
   hammerline interpret SHOT.seg2 [SHOT.seg2 ...] [geometry and picking options] [options]
+  hammerline report FILE.csv | SHOT.seg2 ... -o REPORT.html [--pdf REPORT.pdf] [job details] [exports] [interpret options]
   hammerline pick SHOT.seg2 [SHOT.seg2 ...] [-o FILE.csv] [geometry and picking options]
   hammerline records SHOT.seg2 [...] [--json]
   hammerline site --layer THICKNESS:VELOCITY[:SE] [--layer ...] [--halfspace VELOCITY[:SE]] [options]
@@ -57,6 +58,30 @@ to interpret are the shots of one line: they are picked, then interpreted togeth
   --bandpass LOW,HIGH      4th-order Butterworth band-pass before picking, zero phase, in Hz
   pick writes the first-break table (with confidence, source_file and trace columns); traces
   left unpicked (dead, no clear onset, inconsistent with their neighbours) are listed on stderr.
+
+report: the report of one line for a permit packet, as one self-contained HTML file (figures
+inline, nothing loaded from anywhere) that prints to PDF on A4 or Letter; every option of
+interpret applies (--wave S, --poisson, --p-line, --stations, --segments ...).
+  -o, --output FILE.html   the report (whole or not at all; never over an input file)
+  --pdf FILE.pdf           also print it to PDF with Chromium (/usr/bin/chromium, Debian package
+                           chromium; HAMMERLINE_CHROMIUM overrides the path)
+  --paper A4|Letter        paper of the print layout (default A4)
+  --issued YYYY-MM-DD      date of issue printed on the report (default today)
+  --depths-csv FILE.csv    the depth profile by geophone (units in the column names; cells a
+                           spreadsheet could run as formulas neutralised)
+  --geojson FILE.geojson   the line and a point per geophone with its depths (RFC 7946, WGS 84);
+                           needs --line-start and --line-end
+  --json FILE.json         the JSON interpretation, with the layout and job details the report shows
+  Job details, shown at the top (missing ones are listed in the report and on stderr):
+  --job FILE               a sidecar file: JSON, or lines of "key: value" with the keys client,
+                           project, site, line, date, operator, equipment, source_type,
+                           geophone_spacing_m, line_start, line_end, elevation_datum
+  --client, --project, --site, --line TEXT, --date YYYY-MM-DD, --operator, --equipment,
+  --source-type TEXT, --geophone-spacing D, --elevation-datum TEXT
+                           the same as options (an option replaces the file's field)
+  --line-start LON,LAT --line-end LON,LAT
+                           WGS 84 positions of the first and last geophone, decimal degrees,
+                           longitude first (a negative longitude is joined with =)
 
 site: classes a hand-entered shear-wave profile (for example from a downhole test):
   --layer T:V[:SE]         a layer T thick (m, or ft with --units ft) at shear-wave velocity V

@@ -5,6 +5,9 @@ import { depthsCsv } from '../io/depthsCsv.js';
 import { INTERPRETATION_SCHEMA, interpretationJson } from '../io/interpretationJson.js';
 import { pickTableCsv, unpickedSummary } from '../io/pickTable.js';
 import { interpret, receiverGround, type InterpretationResult, type InterpretOptions } from '../interpret.js';
+import type { FirstBreakTable, Wave } from '../core/types.js';
+import type { LengthUnit } from '../core/units.js';
+import type { PickRow } from '../picking/recordPicks.js';
 import { summary } from '../report/summary.js';
 import { checkShearSlowerThanP } from '../site/fromInterpretation.js';
 import { keyValue, lengthUnitOption, listOption, numberOption, parse, readInput, SITE_OPTIONS, siteOptions, waveOption } from './args.js';
@@ -13,34 +16,34 @@ import { checkOutputPaths, type CliIo } from './io.js';
 import { GEOMETRY_OPTIONS, isSeg2, pickAll } from './records.js';
 import { toMetres } from '../core/units.js';
 
-/** hammerline interpret: first-break tables (one line each) or the SEG-2 records of one line. */
-export function interpretCommand(args: string[], io: CliIo): number {
-  const { values, positionals } = parse(args, {
-    json: { type: 'boolean' },
-    output: { type: 'string', short: 'o' },
-    depths: { type: 'string' },
-    units: { type: 'string' },
-    wave: { type: 'string' },
-    segments: { type: 'string', multiple: true },
-    breakpoint: { type: 'string', multiple: true },
-    'max-segments': { type: 'string' },
-    'through-origin': { type: 'boolean' },
-    'allow-short-branches': { type: 'boolean' },
-    quiet: { type: 'boolean', short: 'q' },
-    help: { type: 'boolean', short: 'h' },
-    ...SITE_OPTIONS,
-    poisson: { type: 'string' },
-    'vp-vs': { type: 'string' },
-    'p-line': { type: 'string' },
-    ...GEOMETRY_OPTIONS,
-  });
-  if (values.help) {
-    io.stdout(HELP);
-    return 0;
-  }
-  if (positionals.length === 0) throw new InputError({}, 'interpret needs at least one first-break table (FILE.csv)');
-  checkOutputPaths([...positionals, ...[values['p-line'], values.stations].filter((f): f is string => typeof f === 'string')],
-    [{ option: '-o', path: values.output as string | undefined }, { option: '--depths', path: values.depths as string | undefined }]);
+/** Options of interpret that choose how a line is interpreted; report accepts the same. */
+export const INTERPRET_OPTIONS = {
+  units: { type: 'string' },
+  wave: { type: 'string' },
+  segments: { type: 'string', multiple: true },
+  breakpoint: { type: 'string', multiple: true },
+  'max-segments': { type: 'string' },
+  'through-origin': { type: 'boolean' },
+  'allow-short-branches': { type: 'boolean' },
+  quiet: { type: 'boolean', short: 'q' },
+  help: { type: 'boolean', short: 'h' },
+  ...SITE_OPTIONS,
+  poisson: { type: 'string' },
+  'vp-vs': { type: 'string' },
+  'p-line': { type: 'string' },
+  ...GEOMETRY_OPTIONS,
+} as const;
+
+/** What the options of INTERPRET_OPTIONS ask for: the unit of the input, the wave, interpret's options and the P line to check an S line against. */
+export interface InterpretChoices {
+  unit: LengthUnit;
+  wave: Wave | undefined;
+  options: InterpretOptions;
+  pLine?: InterpretationResult;
+}
+
+/** Reads the options of INTERPRET_OPTIONS, with a message naming the option that is wrong. */
+export function interpretChoices(values: Record<string, unknown>, io: CliIo): InterpretChoices {
   const unit = lengthUnitOption(values.units as string | undefined);
   const wave = waveOption(values.wave as string | undefined);
   const options: InterpretOptions = {
@@ -72,6 +75,48 @@ export function interpretCommand(args: string[], io: CliIo): number {
     options.breakpoints[name] = list.split(',').map((v) => toMetres(numberOption('breakpoint', v, `an offset in ${unit === 'ft' ? 'feet' : 'metres'}`), unit));
   }
   if (values['max-segments'] !== undefined) options.maxSegments = numberOption('max-segments', values['max-segments'] as string, 'a count from 1 to 4');
+  return { unit, wave, options, pLine };
+}
+
+/** The SEG-2 records of one line, picked and then interpreted together. */
+export function interpretRecords(records: string[], values: Record<string, unknown>, choices: InterpretChoices, io: CliIo): { result: InterpretationResult; table: FirstBreakTable; rows: PickRow[] } {
+  const rows = pickAll(records, values, choices.unit, io);
+  const name = records.length === 1 ? records[0] : `${records[0]} and ${records.length - 1} more record${records.length > 2 ? 's' : ''}`;
+  const log = new WarningLog();
+  for (const sentence of unpickedSummary(rows)) log.add('unpicked-traces', sentence);
+  const table = readFirstBreaks(pickTableCsv(rows, 'm', false), name, log, { wave: choices.wave });
+  return { result: interpret(table, choices.options, log), table, rows };
+}
+
+/** One first-break table, read and interpreted (an S line checked against the P line when one is given). */
+export function interpretTable(file: string, choices: InterpretChoices, io: CliIo): { result: InterpretationResult; table: FirstBreakTable } {
+  const log = new WarningLog();
+  const table = readFirstBreaks(readInput(io, file), file, log, { lengthUnit: choices.unit, wave: choices.wave });
+  const result = interpret(table, choices.options, log);
+  if (choices.pLine !== undefined) {
+    if (result.wave !== 'S') throw new InputError({ file }, '--p-line compares an S-wave line with a P-wave line; this line is not an S-wave line (use --wave S or a wave column)');
+    checkShearSlowerThanP(result, choices.pLine);
+  }
+  return { result, table };
+}
+
+/** hammerline interpret: first-break tables (one line each) or the SEG-2 records of one line. */
+export function interpretCommand(args: string[], io: CliIo): number {
+  const { values, positionals } = parse(args, {
+    json: { type: 'boolean' },
+    output: { type: 'string', short: 'o' },
+    depths: { type: 'string' },
+    ...INTERPRET_OPTIONS,
+  });
+  if (values.help) {
+    io.stdout(HELP);
+    return 0;
+  }
+  if (positionals.length === 0) throw new InputError({}, 'interpret needs at least one first-break table (FILE.csv)');
+  checkOutputPaths([...positionals, ...[values['p-line'], values.stations].filter((f): f is string => typeof f === 'string')],
+    [{ option: '-o', path: values.output as string | undefined }, { option: '--depths', path: values.depths as string | undefined }]);
+  const choices = interpretChoices(values, io);
+  const { unit } = choices;
 
   const documents: Record<string, unknown>[] = [];
   const texts: string[] = [];
@@ -81,12 +126,7 @@ export function interpretCommand(args: string[], io: CliIo): number {
     if (records.length !== positionals.length) {
       throw new InputError({ file: positionals.find((f) => !records.includes(f)) }, 'is a first-break table given with SEG-2 records; interpret either tables (one line each) or the records of one line, not both');
     }
-    const rows = pickAll(records, values, unit, io);
-    const name = records.length === 1 ? records[0] : `${records[0]} and ${records.length - 1} more record${records.length > 2 ? 's' : ''}`;
-    const log = new WarningLog();
-    for (const sentence of unpickedSummary(rows)) log.add('unpicked-traces', sentence);
-    const table = readFirstBreaks(pickTableCsv(rows, 'm', false), name, log, { wave });
-    const result = interpret(table, options, log);
+    const { result, table, rows } = interpretRecords(records, values, choices, io);
     if (values.depths) io.writeText(values.depths as string, depthsCsv(result, receiverGround(table), unit));
     const output = values.json ? JSON.stringify(interpretationJson(result, { picking: { records, picked: rows.filter((r) => r.time !== undefined).length, traces: rows.length } }), null, 2) + '\n' : summary(result, unit);
     if (values.output) io.writeText(values.output as string, output);
@@ -97,13 +137,7 @@ export function interpretCommand(args: string[], io: CliIo): number {
   positionals.forEach((file, i) => {
     if (positionals.length > 1 && !values.quiet) io.stderr(`[${i + 1}/${positionals.length}] ${file}\n`);
     try {
-      const log = new WarningLog();
-      const table = readFirstBreaks(readInput(io, file), file, log, { lengthUnit: unit, wave });
-      const result = interpret(table, options, log);
-      if (pLine !== undefined) {
-        if (result.wave !== 'S') throw new InputError({ file }, '--p-line compares an S-wave line with a P-wave line; this line is not an S-wave line (use --wave S or a wave column)');
-        checkShearSlowerThanP(result, pLine);
-      }
+      const { result, table } = interpretTable(file, choices, io);
       if (values.depths) io.writeText(values.depths as string, depthsCsv(result, receiverGround(table), unit));
       if (values.json) documents.push(interpretationJson(result));
       else texts.push(summary(result, unit));

@@ -4,6 +4,7 @@ import { HELP } from './help.js';
 import { interpretCommand } from './interpret.js';
 import { processIo, type CliIo } from './io.js';
 import { pickCommand, recordsCommand } from './records.js';
+import { reportCommand } from './report.js';
 import { siteCommand } from './site.js';
 
 /**
@@ -38,5 +39,6 @@ function run(argv: string[], io: CliIo): number {
   if (command === 'site') return siteCommand(rest, io);
   if (command === 'pick') return pickCommand(rest, io);
   if (command === 'records') return recordsCommand(rest, io);
-  throw new InputError({}, `unknown command "${command}"; expected interpret, pick, records or site (see hammerline --help)`);
+  if (command === 'report') return reportCommand(rest, io);
+  throw new InputError({}, `unknown command "${command}"; expected interpret, report, pick, records or site (see hammerline --help)`);
 }

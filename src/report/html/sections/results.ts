@@ -1,0 +1,102 @@
+import { escapeHtml } from '../escape.js';
+import type { Figures } from '../figures.js';
+import { depthSectionSvg, METHOD_DASH, REFRACTOR_COLOURS } from '../svg/depthSection.js';
+import { timeDistanceSvg } from '../svg/timeDistance.js';
+import type { ReportInput } from '../types.js';
+
+const DEPTH_METHODS = ['plus-minus', 'GRM', 'delay-time'];
+
+/** Section 3: the time-distance plot with the fitted segments. */
+export function timeDistanceSection(input: ReportInput): string {
+  const { svg, series } = timeDistanceSvg(input.result.fits);
+  const legend = series.map((s) => `<span class="key"><svg viewBox="0 0 14 8" class="swatch"><line x1="0" y1="4" x2="14" y2="4" stroke="${s.colour}" stroke-width="1.6"/><circle cx="7" cy="4" r="2" fill="${s.colour}"/></svg>${escapeHtml(s.sourceId)} (x = ${s.sourceX.toFixed(2)} m)</span>`).join('');
+  return `<section id="time-distance"><h2><span class="no">3</span> Time-distance plot</h2>
+<figure>${svg}<figcaption><span class="legend">${legend}<span class="key"><svg viewBox="0 0 14 8" class="swatch"><path d="M4 1L10 7M4 7L10 1" stroke="#333" stroke-width="1.2"/></svg>pick left out of the fit</span><span class="key"><svg viewBox="0 0 14 8" class="swatch"><path d="M7 1l-4 7h8z" fill="#333"/></svg>source position</span></span>
+Figure 1. First-break times against position along the line, one colour per source; the lines are the fitted segments of each branch (time = intercept time + offset / apparent velocity), drawn over the offsets of the picks they fit.</figcaption></figure></section>`;
+}
+
+/** Section 4: the depth section with uncertainty bands, each method, the recommended profile heavy. */
+export function depthSectionSection(input: ReportInput, fig: Figures): string {
+  const result = input.result;
+  const sources = [...new Map(result.fits.map((f) => [f.branch.sourceId, { id: f.branch.sourceId, x: f.branch.sourceX, elev: f.branch.sourceElev }])).values()].sort((a, b) => a.x - b.x);
+  const layerLabels = result.layers.slice(0, result.refractors.length + 1).map((l, i) => `<tspan>${result.wave === 'S' ? 'Vs' : 'Vp'} ${fig.pm(`layers.${i}.velocity_mps`, `layers.${i}.velocity_se_mps`, 0).replace(/<span /g, '<tspan ').replace(/<\/span>/g, '</tspan>')} m/s</tspan>`);
+  const { svg, exaggeration } = depthSectionSvg({ receivers: input.receivers, sources, refractors: result.refractors, layerLabels });
+  const keys = result.refractors.map((r, k) => `<span class="key"><svg viewBox="0 0 20 8" class="swatch"><rect x="0" y="1" width="20" height="6" fill="${REFRACTOR_COLOURS[k % REFRACTOR_COLOURS.length]}" fill-opacity="0.2"/><line x1="0" y1="4" x2="20" y2="4" stroke="${REFRACTOR_COLOURS[k % REFRACTOR_COLOURS.length]}" stroke-width="2"/></svg>refractor ${r.index}, recommended (${escapeHtml(r.method)}) ± 1 standard error</span>`).join('');
+  const methodKeys = DEPTH_METHODS.map((m) => `<span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#444" stroke-width="1" stroke-dasharray="${METHOD_DASH[m]}"/></svg>${escapeHtml(m)}</span>`).join('');
+  const tomogram = fig.get('tomogram') === undefined ? '' : '<p class="notice">A tomogram was computed for this line; it is a second opinion beside the layered section, and is not drawn into it.</p>';
+  return `<section id="depth-section"><h2><span class="no">4</span> Depth section</h2>
+<figure>${svg}<figcaption><span class="legend"><span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#111" stroke-width="1.6"/></svg>ground surface, geophones</span>${keys}${methodKeys}<span class="key"><svg viewBox="0 0 14 10" class="swatch"><path d="M7 1l4 4l-4 4l-4 -4z" fill="none" stroke="#444"/></svg>intercept-time depth under a source</span></span>
+Figure 2. Interpreted section along the line. Vertical exaggeration ${exaggeration.toFixed(1)} : 1. Bands are ± one standard error of the recommended depth; layer velocities are true velocities ± one standard error. Depths are vertical, below the ground at each geophone.</figcaption></figure>${tomogram}</section>`;
+}
+
+/** Section 5: layer velocities ± standard error, dips and thickness ranges. */
+export function layerSection(input: ReportInput, fig: Figures): string {
+  const result = input.result;
+  const rows = result.layers.map((l, i) => {
+    const isLast = i === result.refractors.length;
+    const below = i > result.refractors.length;
+    const hasBase = i < result.refractors.length && result.refractors[i].points.length > 0;
+    const thickness = isLast ? 'below the deepest refractor' : below ? 'no depth computed (below a velocity inversion)' : hasBase ? `${fig.thickness(i + 1, 'min', 1)} to ${fig.thickness(i + 1, 'max', 1)}` : '—';
+    return `<tr><td>${l.index}</td><td class="n">${fig.pm(`layers.${i}.velocity_mps`, `layers.${i}.velocity_se_mps`, 0)}</td><td class="n">${l.index === 1 ? 'surface' : fig.get(`layers.${i}.dip_deg`) === null ? 'unknown' : fig.pm(`layers.${i}.dip_deg`, `layers.${i}.dip_se_deg`, 1)}</td><td>${l.reversed ? 'forward and reverse' : 'one side only (apparent velocity)'}</td><td class="n">${thickness}</td></tr>`;
+  }).join('');
+  return `<section id="layers"><h2><span class="no">5</span> Layers</h2>
+<table class="data"><thead><tr><th>Layer</th><th>${result.wave === 'S' ? 'Vs' : 'Vp'} ± standard error (m/s)</th><th>Dip of its top (degrees)</th><th>Velocity seen by</th><th>Thickness along the line (m)</th></tr></thead><tbody>${rows}</tbody></table>
+<p class="note">Dip is positive where the top of the layer deepens towards increasing x. Thickness is the range along the line of the difference between the recommended depths of the refractors above and below the layer.</p></section>`;
+}
+
+/** Section 6: depth to each refractor at every geophone, by method and recommended; intercept-time depths under the sources. */
+export function depthTableSection(input: ReportInput, fig: Figures): string {
+  const result = input.result;
+  const tables = result.refractors.map((r, k) => {
+    const path = `refractors.${k}`;
+    const methods = DEPTH_METHODS.filter((m) => (r.byMethod[m] ?? []).length > 0);
+    const indexOf = (m: string) => new Map((r.byMethod[m] ?? []).map((p, i) => [p.x, i]));
+    const methodIndex = new Map(methods.map((m) => [m, indexOf(m)]));
+    const pointIndex = new Map(r.points.map((p, i) => [p.x, i]));
+    const rows = input.receivers.map((receiver, n) => {
+      const i = pointIndex.get(receiver.x);
+      const rec = i === undefined ? '<td class="n">—</td><td class="n">—</td><td>—</td>' : `<td class="n rec">${fig.pm(`${path}.points.${i}.depth_m`, `${path}.points.${i}.depth_se_m`, 2)}</td><td class="n">${fig.num(`${path}.points.${i}.elev_m`, 2)}</td><td>${fig.text(`${path}.points.${i}.method`)}</td>`;
+      const others = methods.map((m) => {
+        const j = methodIndex.get(m)!.get(receiver.x);
+        return `<td class="n">${j === undefined ? '—' : fig.num(`${path}.by_method.${m}.${j}.depth_m`, 2)}</td>`;
+      }).join('');
+      return `<tr><td class="n">${fig.num(`layout.receivers.${n}.station`, 0)}</td><td class="n">${fig.num(`layout.receivers.${n}.x_m`, 2)}</td><td class="n">${fig.num(`layout.receivers.${n}.elev_m`, 2)}</td>${rec}${others}</tr>`;
+    }).join('');
+    const intercept = r.byMethod['intercept-time'] ?? [];
+    const interceptText = intercept.length === 0 ? '' : `<p class="note">Intercept-time depths under the sources: ${intercept.map((p, i) => `${escapeHtml(p.sourceId ?? '')} at x = ${fig.num(`${path}.by_method.intercept-time.${i}.x_m`, 2)} m: ${fig.pm(`${path}.by_method.intercept-time.${i}.depth_m`, `${path}.by_method.intercept-time.${i}.depth_se_m`, 2)} m`).join('; ')}.</p>`;
+    const qualifying = result.warnings.filter((w) => w.layer === r.index + 1);
+    const cautions = qualifying.length === 0 ? '' : `<ul class="qualifiers">${qualifying.map((w) => `<li>${escapeHtml(w.message)}</li>`).join('')}</ul>`;
+    return `<h3>Refractor ${r.index}: top of layer ${r.index + 1} (${fig.num(`layers.${r.index}.velocity_mps`, 0)} m/s); recommended: ${escapeHtml(r.method)}</h3>
+<table class="data depths"><thead><tr><th>Station</th><th>x (m)</th><th>Ground elevation (m)</th><th>Recommended depth ± SE (m)</th><th>Refractor elevation (m)</th><th>Method</th>${methods.map((m) => `<th>${escapeHtml(m)} depth (m)</th>`).join('')}</tr></thead><tbody>${rows}</tbody></table>${interceptText}${cautions}`;
+  }).join('');
+  const none = result.refractors.length === 0 ? '<p>No refractor was found, so no depth is reported.</p>' : '';
+  return `<section id="depths"><h2><span class="no">6</span> Depth to each refractor</h2>
+<p class="note">Depth is vertical, below the ground at each geophone; SE is one standard error. A dash means the method gives no depth there. These depths are interpretations to be confirmed by borings before a foundation is designed on them (section 10).</p>${none}${tables}</section>`;
+}
+
+/** Section 7: Vs30 with its range, and each standard's class with its probability; estimated values labelled. */
+export function siteSection(input: ReportInput, fig: Figures): string {
+  const site = input.result.site;
+  if (site === undefined) {
+    return `<section id="site"><h2><span class="no">7</span> Vs30 and site class</h2><p>Not assessed. ${input.result.wave === 'P' ? 'A P-wave line does not give shear-wave velocities. A site class needs an S-wave (SH) line over the same ground, a downhole or crosshole test, or, as an estimate only, an assumed Poisson’s ratio for each layer.' : 'No station along the line has a depth to every refractor, so no profile could be averaged.'}</p></section>`;
+  }
+  const basis = site.estimatedFromVp
+    ? `<p class="estimated"><strong>ESTIMATED, not measured.</strong> The shear-wave velocities were derived from the P-wave velocities with an assumed Poisson’s ratio (${(fig.get('history') as { step: string; parameters: { poisson?: number[] } }[]).find((s) => s.step === 'site')?.parameters.poisson?.join(', ') ?? 'as given'}, layers top down). A site class from Vp is an estimate: it is not a measured site class, and the standards’ rules for estimated velocities apply.</p>`
+    : site.estimated ? '<p class="estimated"><strong>ESTIMATED.</strong> The velocities were entered as estimates.</p>' : '<p>Shear-wave velocities measured on this S-wave line (first breaks of horizontally polarised shear waves).</p>';
+  const rows = site.classes.map((c, i) => {
+    const p = `site.classes.${i}`;
+    const notes = [c.borderline ? `borderline: ${escapeHtml(c.neighbour ?? 'another class')} possible` : '', c.basis === 'profile shape' ? `by profile shape (by velocity alone: ${escapeHtml(c.velocityClass ?? '')})` : '', c.estimatedRange ? `v̄s/1.3, v̄s, 1.3 v̄s give ${escapeHtml(c.estimatedRange.low.class)}, ${escapeHtml(c.estimatedRange.central.class)}, ${escapeHtml(c.estimatedRange.high.class)}; the most critical governs` : ''].filter(Boolean).join('; ');
+    return `<tr><td>${escapeHtml(c.standard)}</td><td>${escapeHtml(c.table)}</td><td class="n">${fig.num(`${p}.average_velocity_mps`, 0)}</td><td class="n">${fig.num(`${p}.averaging_depth_m`, 2)}</td><td class="cls">${escapeHtml(c.class)}${site.estimated ? ' (estimated)' : ''}</td><td class="n">${fig.num(`${p}.probability`, 2)}</td><td>${notes || '—'}</td></tr>`;
+  }).join('');
+  const notes = site.classes.flatMap((c) => c.notes.map((n) => `<li>${escapeHtml(c.standard)}: ${escapeHtml(n)}</li>`)).join('');
+  return `<section id="site"><h2><span class="no">7</span> Vs30 and site class${site.estimated ? ' (estimated)' : ''}</h2>${basis}
+<table class="data kv"><tbody>
+<tr><th scope="row">Vs30${site.estimated ? ' (estimated)' : ''}, time-averaged over the top 30 m</th><td class="n">${fig.num('site.vs30_mps', 0)} m/s</td></tr>
+<tr><th scope="row">5th to 95th percentile (${fig.num('site.monte_carlo.draws', 0)} Monte Carlo draws, seed ${fig.num('site.monte_carlo.seed', 0)})</th><td class="n">${fig.num('site.vs30_low_mps', 0)} to ${fig.num('site.vs30_high_mps', 0)} m/s</td></tr>
+<tr><th scope="row">Along the line (${fig.num('site.along_line.length', 0)} stations)</th><td class="n">${fig.num('site.along_line_min_mps', 0)} to ${fig.num('site.along_line_max_mps', 0)} m/s</td></tr>
+<tr><th scope="row">Of the top 30 m, extrapolated below the deepest refractor</th><td class="n">${fig.num('site.extrapolated_m', 1)} m</td></tr>
+</tbody></table>
+<table class="data"><thead><tr><th>Standard</th><th>Table</th><th>v̄s (m/s)</th><th>Averaged over (m)</th><th>Class</th><th>Probability</th><th>Remarks</th></tr></thead><tbody>${rows}</tbody></table>
+<p class="note">v̄s is averaged over each standard’s own depth (30 m, or 100 ft = 30.48 m for ASCE 7). Probability is the share of Monte Carlo draws (velocities and depths drawn from their standard errors, a station drawn along the line) that give the class shown. A value on a class bound is given to the softer class.</p>
+${notes ? `<ul class="qualifiers">${notes}</ul>` : ''}</section>`;
+}

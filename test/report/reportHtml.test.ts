@@ -1,0 +1,144 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { WarningLog } from '../../src/core/warnings.js';
+import { readFirstBreaks } from '../../src/io/firstBreaksCsv.js';
+import { interpretationJson } from '../../src/io/interpretationJson.js';
+import { interpret, receiverGround } from '../../src/interpret.js';
+import { REPORT_SECTIONS } from '../../src/report/html/reportHtml.js';
+import { markedNumbers, runReport, section } from './runReport.js';
+
+const SH = 'survey-examples/alluvial-terrace/sh-first-breaks.csv';
+const P = 'survey-examples/pump-station/first-breaks.csv';
+const JOB = ['--client', 'Example Holdings (invented)', '--site', 'Orrin valley terrace, school block (invented)', '--line', 'T-2S', '--date', '2026-05-14',
+  '--operator', 'A. Field (invented)', '--equipment', '24-channel seismograph, 10 Hz horizontal geophones', '--source-type', 'beam struck at both ends, 8 blows stacked',
+  '--line-start', '7.4312,46.9487', '--line-end', '7.4321,46.9487'];
+
+/** The JSON interpretation document made directly by interpret(), independently of the report command. */
+function interpretationOf(file: string, options: Parameters<typeof interpret>[1] = {}) {
+  const log = new WarningLog();
+  const table = readFirstBreaks(readFileSync(file, 'utf8'), file, log, {});
+  return { document: interpretationJson(interpret(table, options, log)) as Record<string, unknown>, receivers: receiverGround(table) };
+}
+
+function at(document: unknown, path: string): unknown {
+  return path.split('.').reduce<unknown>((node, key) => (node === null || typeof node !== 'object' ? undefined : (node as Record<string, unknown>)[key]), document);
+}
+
+describe('hammerline report (HTML)', () => {
+  const sh = runReport(['report', SH, '-o', 'report.html', ...JOB]);
+  const html = sh.written['report.html'];
+
+  it('report of the bundled SH example is deterministic and matches its reviewed snapshot', async () => {
+    expect(sh.code).toBe(0);
+    // Determinism: the same input and command give the same bytes (fixed issue date and version).
+    expect(runReport(['report', SH, '-o', 'report.html', ...JOB]).written['report.html']).toBe(html);
+    // A changed snapshot is reviewed by a person; update it with `npx vitest run test/report -u`
+    // when computed numbers change on purpose.
+    await expect(html).toMatchFileSnapshot('__snapshots__/alluvial-terrace-sh.report.html');
+  });
+
+  it('report holds every section, in the order a reviewer reads them', () => {
+    const positions = REPORT_SECTIONS.map((id) => html.indexOf(`<section id="${id}">`));
+    expect(positions.every((p) => p > 0)).toBe(true);
+    expect([...positions].sort((a, b) => a - b)).toEqual(positions);
+    expect(section(html, 'summary')).toMatch(/probable rock head/);
+    expect(section(html, 'summary')).toMatch(/Vs30 <span/);
+    expect(section(html, 'summary')).toMatch(/Main limitations[\s\S]*<ol><li>.*<\/li><li>.*<\/li><li>.*<\/li><\/ol>/);
+    // The method statement names the published reference of each depth method that gave depths here.
+    expect(section(html, 'method')).toMatch(/Gardner, L\. W\. \(1939\)/);
+    expect(section(html, 'method')).toMatch(/Soske, J\. L\. \(1959\)/);
+    expect(section(html, 'method')).toMatch(/ASCE\/SEI 7-16/);
+    expect(section(html, 'time-distance')).toMatch(/<svg class="figure-svg"/);
+    expect(section(html, 'depth-section')).toMatch(/<path class="band"/);
+    expect(section(html, 'depth-section')).toMatch(/<path class="recommended"/);
+    expect(section(html, 'site')).toMatch(/ASCE 7-22/);
+    expect(section(html, 'qc')).toMatch(/Reciprocal times/);
+    expect(section(html, 'cautions')).toMatch(/Conditions that need borings/);
+    expect(section(html, 'cautions')).toMatch(/local codes/i);
+    expect(section(html, 'history')).toMatch(/[0-9a-f]{64}/);
+    expect(section(html, 'signatures')).toMatch(/Prepared by[\s\S]*Reviewed by[\s\S]*Licence \/ registration number/);
+  });
+
+  it('report loads nothing from elsewhere: no URL, no src or href, no url() or @import, and a policy that forbids loading', () => {
+    for (const report of [html, runReport(['report', P, '-o', 'p.html', '--poisson', '0.3']).written['p.html']]) {
+      expect(report).not.toMatch(/https?:/i);
+      expect(report).not.toMatch(/\b(src|href|xlink:href|srcset|action|poster|data)\s*=/i);
+      expect(report).not.toMatch(/url\s*\(/i);
+      expect(report).not.toMatch(/@import/i);
+      expect(report).not.toMatch(/<(script|link|img|iframe|object|embed|audio|video|base)\b/i);
+      expect(report).not.toMatch(/["'(]\s*\/\/[\w.-]/); // protocol-relative
+      expect(report).toContain(`content="default-src 'none'`);
+    }
+  });
+
+  it('report shows every number as interpret() computes it (parsed back from the HTML)', () => {
+    const { document, receivers } = interpretationOf(SH);
+    const marked = markedNumbers(html);
+    expect(marked.length).toBeGreaterThan(300);
+    let compared = 0;
+    for (const n of marked) {
+      let expected: unknown;
+      if (n.thickness !== undefined) {
+        // Thickness of layer k: depth to refractor k minus depth to refractor k-1 where both have a point.
+        const depth = (k: number) => new Map((at(document, `refractors.${k - 1}.points`) as { x_m: number; depth_m: number }[]).map((p) => [p.x_m, p.depth_m]));
+        const base = depth(n.thickness);
+        const top = n.thickness > 1 ? depth(n.thickness - 1) : undefined;
+        const values = [...base.entries()].filter(([x]) => !top || top.has(x)).map(([x, d]) => d - (top?.get(x) ?? 0));
+        expected = n.agg === 'min' ? Math.min(...values) : Math.max(...values);
+      } else if (n.path!.startsWith('layout.receivers.')) {
+        const [, , i, field] = n.path!.split('.');
+        expected = field === 'station' ? Number(i) + 1 : field === 'x_m' ? receivers[Number(i)].x : receivers[Number(i)].elev;
+      } else if (n.path!.startsWith('layout.') || n.path!.startsWith('picking.')) {
+        continue;
+      } else if (n.agg) {
+        const [arrayPath, field] = n.path!.split('.*.');
+        const values = (at(document, arrayPath) as Record<string, number>[]).map((o) => o[field]);
+        expected = n.agg === 'min' ? Math.min(...values) : Math.max(...values);
+      } else {
+        expected = at(document, n.path!);
+      }
+      expect(n.value, n.path ?? `thickness ${n.thickness}`).toBeCloseTo(expected as number, 9);
+      // The text shown is the value at the decimals shown (half a unit in the last place).
+      expect(Math.abs(Number(n.text) - (expected as number)), `${n.path} shown as ${n.text}`).toBeLessThanOrEqual(0.5 * 10 ** -(n.digits ?? 0) + 1e-9);
+      compared++;
+    }
+    expect(compared).toBeGreaterThan(300);
+    // Every depth the JSON holds for the recommended profile appears in the report.
+    const shown = new Set(marked.map((n) => n.path));
+    (document.refractors as { points: unknown[] }[]).forEach((r, k) => r.points.forEach((_, i) => expect(shown.has(`refractors.${k}.points.${i}.depth_m`)).toBe(true)));
+    // Every warning of the interpretation is in the warnings section, word for word (HTML-escaped).
+    const escape = (t: string) => t.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');
+    for (const w of document.warnings as { message: string }[]) expect(section(html, 'warnings')).toContain(escape(w.message));
+  });
+
+  it('report tables of layers, depths and site carry no number that is not traced to the JSON document', () => {
+    for (const id of ['layers', 'depths', 'site']) {
+      for (const cell of section(html, id).matchAll(/<td class="n[^"]*">([\s\S]*?)<\/td>/g)) {
+        const untraced = cell[1].replace(/<span class="num"[^>]*>[^<]*<\/span>/g, '');
+        expect(untraced, `${id}: ${cell[1]}`).not.toMatch(/\d/);
+      }
+    }
+  });
+
+  it('report of a P line with --poisson labels Vs30 and every class as estimated, never as measured', () => {
+    const p = runReport(['report', P, '-o', 'p.html', '--poisson', '0.3']).written['p.html'];
+    expect(section(p, 'site')).toMatch(/ESTIMATED, not measured/);
+    const classCells = [...section(p, 'site').matchAll(/<td class="cls">([^<]*)<\/td>/g)].map((m) => m[1]);
+    expect(classCells.length).toBe(3);
+    for (const c of classCells) expect(c).toMatch(/\(estimated\)$/);
+    expect(section(p, 'summary')).toMatch(/ESTIMATED from Vp, not measured/);
+    expect(p).not.toMatch(/from measured shear-wave velocities/);
+  });
+
+  it('report of a P line without a Poisson ratio says why there is no site class', () => {
+    const p = runReport(['report', P, '-o', 'p.html']).written['p.html'];
+    expect(section(p, 'site')).toMatch(/Not assessed\. A P-wave line does not give shear-wave velocities/);
+  });
+
+  it('report escapes text the user gave (job details, file names) so it cannot add markup', () => {
+    const r = runReport(['report', SH, '-o', 'x.html', '--client', '<script>alert(1)</script>', '--site', '"><img onerror=x>']).written['x.html'];
+    expect(r).not.toMatch(/<script>alert/);
+    expect(r).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
+    expect(r).not.toMatch(/<img/);
+  });
+});
