@@ -10,7 +10,7 @@ import { round } from '../io/numbers.js';
 import { readStations } from '../io/stationsCsv.js';
 import { receiverGround, receiverSpacing, VERSION, type InterpretationResult } from '../interpret.js';
 import type { PickRow } from '../picking/recordPicks.js';
-import { renderPdf, requireChromium } from '../report/html/pdf.js';
+import { renderPdf, requireChromium } from './pdf.js';
 import { reportHtml } from '../report/html/reportHtml.js';
 import type { ReportInputFile } from '../report/html/types.js';
 import { parse, readInput } from './args.js';

@@ -4,7 +4,7 @@ import { randomBytes } from 'node:crypto';
 import { tmpdir } from 'node:os';
 import { basename, dirname, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { InputError } from '../../core/errors.js';
+import { InputError } from '../core/errors.js';
 
 /** Where Debian's chromium package installs the browser; HAMMERLINE_CHROMIUM overrides it. */
 export const DEFAULT_CHROMIUM = '/usr/bin/chromium';
