@@ -9,6 +9,7 @@ Usage:
   hammerline report FILE.csv | SHOT.seg2 ... -o REPORT.html [--pdf REPORT.pdf] [job details] [exports] [interpret options]
   hammerline pick SHOT.seg2 [SHOT.seg2 ...] [-o FILE.csv] [geometry and picking options]
   hammerline records SHOT.seg2 [...] [--json]
+  hammerline tomography FILE.csv | SHOT.seg2 ... [--contour V] [--json] [-o FILE] [--grid-csv FILE]
   hammerline site --layer THICKNESS:VELOCITY[:SE] [--layer ...] [--halfspace VELOCITY[:SE]] [options]
   hammerline --help | --version
 
@@ -91,4 +92,32 @@ site: classes a hand-entered shear-wave profile (for example from a downhole tes
   --json, --units, --draws, --seed as above
 
 Exit status: 0 success, 2 bad input (message on stderr), 1 internal error.
+`;
+
+/** The text of hammerline tomography --help. */
+export const TOMOGRAPHY_HELP = `hammerline tomography: first-arrival traveltime tomography of one line
+
+Usage:
+  hammerline tomography FILE.csv [options]
+  hammerline tomography SHOT.seg2 [SHOT.seg2 ...] [geometry and picking options] [options]
+
+A smooth velocity image of the ground that assumes no layers, made from the same first breaks as
+interpret: slowness on a grid of nodes, times by fast marching, the fit by quasi-Newton iterations
+with smoothing, stopped when the picks are fitted to their noise. It is run from two starting
+models (a velocity increasing with depth, and the layered interpretation) and both are reported.
+
+Options:
+  --contour V[,V...]       report the depth of the V velocity contour at every geophone (in m/s,
+                           or ft/s with --units ft), beside the layered refractor depth; repeatable
+  --json                   print the JSON document (schema hammerline/tomogram@1), always SI
+  -o, --output FILE        write the summary or JSON to FILE (whole or not at all)
+  --grid-csv FILE          also write the grid as CSV (x, depth, elevation, velocity, coverage)
+  --cell D                 node spacing (default half the geophone spacing)
+  --depth D                depth of the grid below the lowest ground (default a third of the
+                           longest offset, at least 10 m)
+  --velocity-range LOW,HIGH  velocities the tomogram may use (default 100,6000 m/s)
+  --smoothing H,V          weights of horizontal and vertical roughness (default 1,1)
+  --pick-noise MS          pick noise in ms (default estimated from neighbouring picks)
+  --max-iterations N       most iterations per starting model (default 60)
+  --units m|ft, --wave P|S, and the geometry and picking options of interpret
 `;

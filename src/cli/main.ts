@@ -6,6 +6,7 @@ import { processIo, type CliIo } from './io.js';
 import { pickCommand, recordsCommand } from './records.js';
 import { reportCommand } from './report.js';
 import { siteCommand } from './site.js';
+import { tomographyCommand } from './tomography.js';
 
 /**
  * The command line as a function of its arguments, so tests can call it.
@@ -40,5 +41,6 @@ function run(argv: string[], io: CliIo): number {
   if (command === 'pick') return pickCommand(rest, io);
   if (command === 'records') return recordsCommand(rest, io);
   if (command === 'report') return reportCommand(rest, io);
-  throw new InputError({}, `unknown command "${command}"; expected interpret, report, pick, records or site (see hammerline --help)`);
+  if (command === 'tomography') return tomographyCommand(rest, io);
+  throw new InputError({}, `unknown command "${command}"; expected interpret, report, pick, records, site or tomography (see hammerline --help)`);
 }
