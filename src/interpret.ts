@@ -1,4 +1,5 @@
-import { checkLayerCautions, depthCautions, type Caution } from './core/cautions.js';
+import { checkHiddenLayers, checkLayerCautions, depthCautions, type Caution } from './core/cautions.js';
+import { len, si, type SiText } from './core/siText.js';
 import { median } from './core/stats.js';
 import type { BranchFit, FirstBreakTable, Interpretation, Layer, Wave } from './core/types.js';
 import { WarningLog } from './core/warnings.js';
@@ -11,8 +12,8 @@ import { fitLine } from './fit/fitLine.js';
 import { forwardCheck, type ForwardCheck } from './forward/forwardCheck.js';
 import { linearAt } from './core/interpolate.js';
 import { assignLayers, layerVelocities } from './fit/layers.js';
-import { siteInputFromInterpretation, type VsFromVpOptions } from './site/fromInterpretation.js';
-import { assessSite, type SiteAssessment, type SiteOptions } from './site/siteAssessment.js';
+import { planSite, type VsFromVpOptions } from './site/fromInterpretation.js';
+import { assessSite, type SiteAssessment, type SiteOptions, type VsLayer } from './site/siteAssessment.js';
 
 export const VERSION = '0.5.1';
 
@@ -37,6 +38,8 @@ export interface InterpretationResult extends Interpretation {
   forward?: ForwardCheck;
   /** Vs30 and site classes: for S lines, and for P lines given a Poisson's ratio or Vp/Vs. */
   site?: SiteAssessment;
+  /** A P line given a Poisson's ratio whose Vs could not be had for every layer: the Vs profile and why no class. */
+  siteNotClassified?: { vsLayers: VsLayer[]; reason: SiText };
 }
 
 /**
@@ -52,19 +55,19 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   const wave: Wave = options.wave ?? table.wave ?? 'P';
   const history: Interpretation['history'] = [];
   const branches = splitBranches(table.picks, log, { file: table.file, allowShortBranches: options.allowShortBranches });
-  history.push({ step: 'splitBranches', parameters: { branches: branches.length, allowShortBranches: options.allowShortBranches ?? false } });
+  history.push({ step: 'split_branches', parameters: { branches: branches.length, allow_short_branches: options.allowShortBranches ?? false } });
 
   const spacing = receiverSpacing(table);
   const { fits, warnings: fitWarnings, statics } = fitLine(branches, options, table.file, spacing, wave);
   log.items.push(...fitWarnings);
   history.push({
-    step: 'segmentedRegression',
-    parameters: { statics, criterion: 'BIC', maxSegments: options.maxSegments ?? 4, directThroughOrigin: options.directThroughOrigin ?? false, fixedSegments: options.segments ?? {}, fixedBreakpoints_m: options.breakpoints ?? {}, outlierRule: 'modified z-score > 5' },
+    step: 'segmented_regression',
+    parameters: { statics, criterion: 'BIC', max_segments: options.maxSegments ?? 4, direct_through_origin: options.directThroughOrigin ?? false, fixed_segments: options.segments ?? {}, fixed_breakpoints_m: Object.fromEntries(Object.entries(options.breakpoints ?? {}).map(([k, v]) => [k, v.map((x) => Number(x.toFixed(3)))])), outlier_rule: 'modified z-score > 5' },
   });
 
   const layerCount = assignLayers(fits, spacing, log);
   const layers: Layer[] = layerVelocities(fits, layerCount, log);
-  history.push({ step: 'layers', parameters: { layers: layers.length, receiverSpacing_m: spacing, trueVelocity: 'Johnson 1976 plane dipping layers (up/down-dip)' } });
+  history.push({ step: 'layers', parameters: { layers: layers.length, receiver_spacing_m: Number(spacing.toFixed(3)), true_velocity: 'Johnson 1976 plane dipping layers (up/down-dip)' } });
   checkLayerCautions(layers, wave, log);
 
   const usable = usableLayers(layers);
@@ -81,25 +84,24 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   // On a sound interpretation the section fits the picks to 1.2 to 1.6 times the line-fit RMS
   // (measured on forward-model lines); twice it, and 0.3 ms more, is a misfit.
   if (forward !== undefined && forward.rms > Math.max(2 * pickNoise, pickNoise + 0.3e-3)) {
-    log.add('forward-misfit', `first arrivals computed through the interpreted section differ from the picks by ${(forward.rms * 1e3).toFixed(2)} ms RMS (the line fits leave ${(pickNoise * 1e3).toFixed(2)} ms), worst ${(forward.worst.difference * 1e3).toFixed(1)} ms for source ${forward.worst.sourceId} at x = ${forward.worst.receiverX} m: the section does not explain the picks well; look for a missed layer, a wrong segment choice or a lateral change`);
+    log.add('forward-misfit', si`first arrivals computed through the interpreted section differ from the picks by ${(forward.rms * 1e3).toFixed(2)} ms RMS (the line fits leave ${(pickNoise * 1e3).toFixed(2)} ms), worst ${(forward.worst.difference * 1e3).toFixed(1)} ms for source ${forward.worst.sourceId} at x = ${len(forward.worst.receiverX, 2)}: the section does not explain the picks well; look for a missed layer, a wrong segment choice or a lateral change`);
   }
-  for (const r of refractors) {
-    if (r.hiddenLayer === undefined) continue;
-    const h = r.hiddenLayer;
-    log.add('hidden-layer-limit',
-      `refractor ${r.index}: a layer of about ${Math.round(h.hiddenVelocity)} m/s up to ${h.maxThickness.toFixed(1)} m thick could lie above it without ever arriving first (Soske 1959); the refractor would then be up to ${h.depthUnderestimate.toFixed(1)} m deeper than computed`,
-      { layer: r.index + 1 });
-  }
-  history.push({ step: 'depths', parameters: { methods: ['intercept-time', 'plus-minus', 'GRM', 'delay-time'], recommended: refractors.map((r) => r.method), reciprocalTolerance_ms: reciprocalTolerance(pickNoise) * 1e3, disagreement: `max(${DISAGREE_METRES} m, ${DISAGREE_FRACTION * 100} %)` } });
+  checkHiddenLayers(refractors, log);
+  history.push({ step: 'depths', parameters: { methods: ['intercept-time', 'plus-minus', 'GRM', 'delay-time'], recommended: refractors.map((r) => r.method), reciprocal_tolerance_ms: Number((reciprocalTolerance(pickNoise) * 1e3).toFixed(3)), disagreement: `max(${DISAGREE_METRES} m, ${DISAGREE_FRACTION * 100} %)` } });
 
   const receiverXs = [...new Set(table.picks.map((p) => p.receiverX))].sort((a, b) => a - b);
-  const siteInput = siteInputFromInterpretation({ file: table.file, wave, layers, refractors }, receiverXs, options.vsFromVp);
+  const plan = planSite({ file: table.file, wave, layers, refractors }, receiverXs, options.vsFromVp);
+  const siteInput = plan.input;
   let site: SiteAssessment | undefined;
+  let siteNotClassified: InterpretationResult['siteNotClassified'];
   if (siteInput !== undefined && siteInput.stations.length > 0) {
     site = assessSite(siteInput, options.site);
-    history.push({ step: 'site', parameters: { draws: site.draws, seed: site.seed, estimatedFromVp: site.estimatedFromVp, poisson: siteInput.poisson ?? null, stations: siteInput.stations.length } });
+    history.push({ step: 'site', parameters: { draws: site.draws, seed: site.seed, estimated_from_vp: site.estimatedFromVp, poisson: siteInput.poisson?.map((p) => Number(p.toFixed(3))) ?? null, stations: siteInput.stations.length } });
   } else if (siteInput !== undefined) {
     log.add('site-not-computed', 'no receiver lies where every refractor has a depth, so Vs30 cannot be computed along the line');
+  } else if (plan.refused !== undefined && plan.vsLayers !== undefined) {
+    siteNotClassified = { vsLayers: plan.vsLayers, reason: plan.refused };
+    log.add('vs-from-vp-saturated', plan.refused);
   }
 
   const used = fits.reduce((n, f) => n + f.branch.picks.length - f.outlierRows.length, 0);
@@ -110,7 +112,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     refractors,
     fits,
     warnings: log.items,
-    cautions: depthCautions(wave),
+    cautions: depthCautions(wave, layers),
     history,
     fitRmsSeconds: pickNoise,
     reciprocal,
@@ -118,6 +120,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     picksUsed: used,
     picksTotal: table.picks.length,
     site,
+    ...(siteNotClassified ? { siteNotClassified } : {}),
   };
 }
 
@@ -164,7 +167,7 @@ function checkGeometry(table: FirstBreakTable, receivers: { x: number }[], spaci
   for (let i = 1; i < receivers.length; i++) {
     const gap = receivers[i].x - receivers[i - 1].x;
     if (gap > 1.5 * spacing) {
-      log.add('receiver-gap', `no geophone between x = ${receivers[i - 1].x} and ${receivers[i].x} m (a gap of ${gap.toFixed(2)} m, ${(gap / spacing).toFixed(1)} spacings): no depth is computed inside the gap, and the methods that pair neighbouring geophones lose coverage beside it`, { where: { file: table.file } });
+      log.add('receiver-gap', si`no geophone between x = ${len([receivers[i - 1].x, receivers[i].x], 2, ' and ')} (a gap of ${len(gap, 2)}, ${(gap / spacing).toFixed(1)} spacings): no depth is computed inside the gap, and the methods that pair neighbouring geophones lose coverage beside it`, { where: { file: table.file } });
     }
   }
   const first = receivers[0].x;
@@ -178,7 +181,7 @@ function checkGeometry(table: FirstBreakTable, receivers: { x: number }[], spaci
     const x = fits.find((f) => f.branch.sourceId === id)!.branch.sourceX;
     if (set.size === 1 && x > first + spacing && x < last - spacing) {
       const side = [...set][0];
-      log.add('one-sided-source', `source ${id} at x = ${x} m lies inside the spread but has picks on its ${side === 'forward' ? '+x' : '-x'} side only; if the other side was recorded, its picks are missing`, { where: { file: table.file, source: id } });
+      log.add('one-sided-source', si`source ${id} at x = ${len(x, 2)} lies inside the spread but has picks on its ${side === 'forward' ? '+x' : '-x'} side only; if the other side was recorded, its picks are missing`, { where: { file: table.file, source: id } });
     }
   }
 }

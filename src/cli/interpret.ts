@@ -30,6 +30,8 @@ export const INTERPRET_OPTIONS = {
   ...SITE_OPTIONS,
   poisson: { type: 'string' },
   'vp-vs': { type: 'string' },
+  'layer-poisson': { type: 'string', multiple: true },
+  'layer-vs': { type: 'string', multiple: true },
   'p-line': { type: 'string' },
   ...GEOMETRY_OPTIONS,
 } as const;
@@ -40,6 +42,15 @@ export interface InterpretChoices {
   wave: Wave | undefined;
   options: InterpretOptions;
   pLine?: InterpretationResult;
+}
+
+/** Parses LAYER:VALUE[:VALUE] of the per-layer options. */
+function layerValue(option: string, text: string, expected: string): [number, number[]] {
+  const parts = text.split(':');
+  if (parts.length < 2 || parts.length > 3) throw new InputError({}, `--${option} ${text}: expected ${expected}`);
+  const layer = numberOption(option, parts[0], expected);
+  if (!Number.isInteger(layer) || layer < 1) throw new InputError({}, `--${option} ${text}: the layer must be a whole number from 1 (the top layer); expected ${expected}`);
+  return [layer, parts.slice(1).map((p) => numberOption(option, p, expected))];
 }
 
 /** Reads the options of INTERPRET_OPTIONS, with a message naming the option that is wrong. */
@@ -55,6 +66,14 @@ export function interpretChoices(values: Record<string, unknown>, io: CliIo): In
   if (values.poisson !== undefined && values['vp-vs'] !== undefined) throw new InputError({}, 'give --poisson or --vp-vs, not both');
   if (values.poisson !== undefined) options.vsFromVp = { poisson: listOption('poisson', values.poisson as string, "a Poisson's ratio from 0 to below 0.5") };
   if (values['vp-vs'] !== undefined) options.vsFromVp = { vpVs: listOption('vp-vs', values['vp-vs'] as string, 'a Vp/Vs ratio above 1.414') };
+  for (const text of (values['layer-poisson'] as string[] | undefined) ?? []) {
+    const [layer, nu] = layerValue('layer-poisson', text, 'LAYER:RATIO, for example 2:0.45 (layer 1 = top)');
+    options.vsFromVp = { ...options.vsFromVp, layerPoisson: { ...options.vsFromVp?.layerPoisson, [layer]: nu[0] } };
+  }
+  for (const text of (values['layer-vs'] as string[] | undefined) ?? []) {
+    const [layer, vs] = layerValue('layer-vs', text, `LAYER:VS[:SE] in ${unit === 'ft' ? 'ft/s' : 'm/s'}, for example 2:250 (layer 1 = top)`);
+    options.vsFromVp = { ...options.vsFromVp, layerVs: { ...options.vsFromVp?.layerVs, [layer]: { velocity: toMetres(vs[0], unit), se: toMetres(vs[1] ?? 0, unit) } } };
+  }
   let pLine: InterpretationResult | undefined;
   if (values['p-line'] !== undefined) {
     const file = values['p-line'] as string;

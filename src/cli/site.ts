@@ -52,6 +52,7 @@ export function siteCommand(args: string[], io: CliIo): number {
     stations: [{ x: 0, depths, depthSes: depths.map(() => 0) }],
     estimatedFromVp: false,
     estimatedByUser: Boolean(values.estimated),
+    source: 'hand-entered',
     profileBase: halfspace ? depths[depths.length - 1] : layers.reduce((a, l) => a + l.thickness, 0),
   };
   const site = assessSite(input, siteOptions(values));

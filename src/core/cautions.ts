@@ -1,18 +1,32 @@
+import { len, si, vel, type Quantity } from './siText.js';
 import type { Layer, Wave } from './types.js';
 import type { WarningLog } from './warnings.js';
 
 /** A standing caution: true of every refraction result, shown wherever a depth or class is shown. */
 export interface Caution {
   code: string;
+  /** The sentence, SI units. */
   message: string;
+  /** The same sentence as text and SI quantities, when it holds lengths or velocities (see si``). */
+  parts?: (string | Quantity)[];
+}
+
+/** True when a P-wave layer's velocity lies in the band of saturated soil. */
+export function inWaterBand(velocity: number): boolean {
+  return velocity >= WATER_TABLE_VP_MIN && velocity <= WATER_TABLE_VP_MAX;
 }
 
 /** Speed of sound in water, about 1480 to 1500 m/s: saturated soil shows a Vp near it (common practice). */
 export const WATER_TABLE_VP_MIN = 1450;
 export const WATER_TABLE_VP_MAX = 1650;
 
-/** The cautions every depth carries, whatever the data. */
-export function depthCautions(wave: Wave): Caution[] {
+/**
+ * The cautions every depth carries; on a P-wave line with a layer in the band of saturated soil
+ * (1450-1650 m/s) also the water-table caution (a caution shown on every line is read by no one).
+ *
+ * @param layers - the line's layers; omitted, the water-table caution goes with every P line
+ */
+export function depthCautions(wave: Wave, layers?: Layer[]): Caution[] {
   const cautions: Caution[] = [
     {
       code: 'hidden-layer',
@@ -27,11 +41,9 @@ export function depthCautions(wave: Wave): Caution[] {
       message: 'These results support, and do not replace, the judgement of the licensed professional responsible for the site; local codes govern.',
     },
   ];
-  if (wave === 'P') {
-    cautions.splice(1, 0, {
-      code: 'water-table-ambiguity',
-      message: 'On a P-wave line a refractor near 1500 m/s may be the water table in soil rather than rock: saturated soil shows the speed of sound in water whatever its stiffness. An S-wave line or a boring tells them apart.',
-    });
+  if (wave === 'P' && (layers === undefined || layers.some((l) => inWaterBand(l.velocity)))) {
+    const text = si`On a P-wave line a refractor near ${vel(1500)} may be the water table in soil rather than rock: saturated soil shows the speed of sound in water whatever its stiffness. An S-wave line or a boring tells them apart.`;
+    cautions.splice(1, 0, { code: 'water-table-ambiguity', message: text.text, parts: text.parts });
   }
   return cautions;
 }
@@ -46,13 +58,50 @@ export function checkLayerCautions(layers: Layer[], wave: Wave, warnings: Warnin
     const layer = layers[i];
     if (layer.velocity <= above.velocity) {
       warnings.add('velocity-inversion',
-        `layer ${layer.index} (${Math.round(layer.velocity)} m/s) is not faster than layer ${above.index} (${Math.round(above.velocity)} m/s): a refractor must be faster than the layer above it. No depth is computed to it; check the picks and the segment choice, and suspect a lateral change`,
+        si`layer ${layer.index} (${vel(layer.velocity)}) is not faster than layer ${above.index} (${vel(above.velocity)}): a refractor must be faster than the layer above it. No depth is computed to it; check the picks and the segment choice, and suspect a lateral change`,
         { layer: layer.index });
     }
-    if (wave === 'P' && layer.velocity >= WATER_TABLE_VP_MIN && layer.velocity <= WATER_TABLE_VP_MAX) {
+    if (wave === 'P' && inWaterBand(layer.velocity)) {
       warnings.add('water-table',
-        `refractor ${layer.index - 1} has Vp ${Math.round(layer.velocity)} m/s, within ${WATER_TABLE_VP_MIN}-${WATER_TABLE_VP_MAX} m/s: it may be the water table in soil rather than rock. Do not read it as bedrock without an S-wave line or a boring`,
+        si`refractor ${layer.index - 1} has Vp ${vel(layer.velocity)}, within ${vel([WATER_TABLE_VP_MIN, WATER_TABLE_VP_MAX], 0, '-')}: it may be the water table in soil rather than rock. Do not read it as bedrock without an S-wave line or a boring`,
         { layer: layer.index });
     }
+  }
+}
+
+/** What the hidden-layer check needs of a refractor (see depth/hiddenLayer.ts). */
+export interface HiddenLayerInput {
+  index: number;
+  points: { depth: number; depthSe: number }[];
+  hiddenLayer?: { hiddenVelocity: number; maxThickness: number; depthUnderestimate: number };
+}
+
+/**
+ * The hidden-layer limit of a refractor (Soske 1959) as a sentence: shown once, under the
+ * refractor, wherever its depths are shown.
+ */
+export function hiddenLayerText(r: HiddenLayerInput) {
+  const h = r.hiddenLayer!;
+  return si`a layer of about ${vel(h.hiddenVelocity)} up to ${len(h.maxThickness)} thick could lie above refractor ${r.index} without ever arriving first (Soske 1959); the refractor would then be up to ${len(h.depthUnderestimate)} deeper than computed`;
+}
+
+/**
+ * Raises `hidden-layer-limit` only where it matters: where the line shows a sign of a layer it
+ * did not keep (a segment dropped or merged by the layer-count guards: a layer seen on too few
+ * picks is the visible edge of a hidden one) and the possible error exceeds the depth's own
+ * uncertainty (twice its median standard error). Elsewhere the limit is shown as information
+ * under the refractor and the standing hidden-layer caution applies; a warning raised on every
+ * line is read by no one.
+ */
+export function checkHiddenLayers(refractors: HiddenLayerInput[], warnings: WarningLog): void {
+  const unkept = warnings.items.filter((w) => w.code === 'layer-dropped' || w.code === 'layer-merged');
+  if (unkept.length === 0) return;
+  for (const r of refractors) {
+    if (r.hiddenLayer === undefined || r.points.length === 0) continue;
+    const ses = r.points.map((p) => p.depthSe).sort((a, b) => a - b);
+    const depthSe = ses[ses.length >> 1];
+    if (!(r.hiddenLayer.depthUnderestimate > 2 * depthSe)) continue;
+    const text = hiddenLayerText(r);
+    warnings.add('hidden-layer-limit', { text: `${text.text}; the fit left out a segment (${unkept.map((w) => w.code).join(', ')}), so such a layer is more than a possibility here: check the segments, or a boring`, parts: [...text.parts, `; the fit left out a segment (${unkept.map((w) => w.code).join(', ')}), so such a layer is more than a possibility here: check the segments, or a boring`] }, { layer: r.index + 1 });
   }
 }

@@ -18,3 +18,34 @@ export function fromMetres(value: number, unit: LengthUnit): number {
 export function velocityLabel(unit: LengthUnit): string {
   return unit === 'ft' ? 'ft/s' : 'm/s';
 }
+
+/**
+ * A length in metres for display: in metres, or in feet with the metric value after it in
+ * brackets ("15.4 ft [4.7 m]"), rounded to `digits` decimals (positions then print as 1.5, never
+ * as 0.45720000000000005). 1 ft = 0.3048 m exactly.
+ *
+ * @param metres - one value, or several printed as a list ("12.0, 14.0 m") or a range ("1450-1650")
+ * @example
+ * formatLength(4.7, 'ft', 1) // "15.4 ft [4.7 m]"
+ */
+export function formatLength(metres: number | number[], unit: LengthUnit, digits: number, joiner = ', '): string {
+  return formatValues(metres, unit, digits, joiner, 'm', 'ft');
+}
+
+/** A velocity in m/s for display: in m/s, or in ft/s with the m/s value after it in brackets. */
+export function formatVelocity(mps: number | number[], unit: LengthUnit, digits = 0, joiner = ', '): string {
+  return formatValues(mps, unit, digits, joiner, 'm/s', 'ft/s');
+}
+
+function formatValues(si: number | number[], unit: LengthUnit, digits: number, joiner: string, siLabel: string, ftLabel: string): string {
+  const values = Array.isArray(si) ? si : [si];
+  const text = (list: number[]) => list.map((v) => fixed(v, digits)).join(joiner);
+  if (unit === 'm') return `${text(values)} ${siLabel}`;
+  return `${text(values.map((v) => v / METRES_PER_FOOT))} ${ftLabel} [${text(values)} ${siLabel}]`;
+}
+
+/** toFixed without a negative zero ("-0.0" prints as "0.0"). */
+function fixed(value: number, digits: number): string {
+  const text = value.toFixed(digits);
+  return /^-0(\.0*)?$/.test(text) ? text.slice(1) : text;
+}

@@ -2,7 +2,7 @@ import type { BranchFit, RefractorPoint } from '../core/types.js';
 import { round } from './numbers.js';
 import type { InterpretationResult } from '../interpret.js';
 import { VERSION } from '../interpret.js';
-import { siteJson } from './siteJson.js';
+import { siteJson, siteNotClassifiedJson } from './siteJson.js';
 
 /** Version tag of the JSON document; change it when a stable field changes meaning. */
 export const INTERPRETATION_SCHEMA = 'hammerline/interpretation@1';
@@ -75,7 +75,7 @@ export function interpretationJson(result: InterpretationResult, extra: Record<s
       } : {}),
     })),
     branches: result.fits.map(branch),
-    ...(result.site ? { site: siteJson(result.site) } : {}),
+    ...(result.site ? { site: siteJson(result.site) } : result.siteNotClassified ? { site: siteNotClassifiedJson(result.siteNotClassified.vsLayers, result.siteNotClassified.reason.text) } : {}),
     qc: {
       fit_rms_ms: round(result.fitRmsSeconds * 1e3, 3),
       picks_used: result.picksUsed,

@@ -1,6 +1,30 @@
-import { fromMetres, velocityLabel, type LengthUnit } from '../core/units.js';
-import type { SiteAssessment } from '../site/siteAssessment.js';
-import { table } from './format.js';
+import { fromMetres, formatLength, formatVelocity, velocityLabel, type LengthUnit } from '../core/units.js';
+import type { SiteAssessment, VsLayer } from '../site/siteAssessment.js';
+import { plusMinus, table } from './format.js';
+import { displayText } from './unitText.js';
+
+const BASIS: Record<VsLayer['basis'], string> = {
+  measured: 'measured',
+  poisson: "from Vp and Poisson's ratio",
+  'given-vs': 'Vs given for this layer',
+  'not-estimated': 'not estimated: give its own value',
+};
+
+/** The per-layer shear-wave velocity profile: Vp, Poisson's ratio used, Vs ± standard error, and how each was had. */
+export function vsProfileTable(layers: VsLayer[], unit: LengthUnit): string[] {
+  const v = (mps: number) => fromMetres(mps, unit);
+  const label = velocityLabel(unit);
+  const fromVp = layers.some((l) => l.vp !== undefined);
+  const rows = layers.map((l) => [
+    String(l.index),
+    ...(fromVp ? [l.vp === undefined ? '-' : plusMinus(v(l.vp), l.vpSe === undefined ? undefined : v(l.vpSe), 0),
+      l.poisson === undefined ? '-' : `${l.poisson.toFixed(2)}${l.poissonRange ? ` (${l.poissonRange[0].toFixed(2)} to ${l.poissonRange[1].toFixed(2)})` : ''}`] : []),
+    l.vs === undefined ? '-' : plusMinus(v(l.vs), l.vsSe === undefined ? undefined : v(l.vsSe), 0),
+    [BASIS[l.basis], l.saturated === 'water-band' ? 'Vp in the saturated-soil band' : l.saturated === 'below-water-table' ? 'below the water table' : ''].filter(Boolean).join('; '),
+  ]);
+  const header = ['layer', ...(fromVp ? [`Vp (${label})`, "Poisson's ratio (range drawn)"] : []), `Vs (${label})`, 'basis'];
+  return ['  Shear-wave velocity by layer (top down; the last continues below the deepest boundary)', ...table(header, rows).map((s) => `    ${s}`)];
+}
 
 /** The site-class section of the readable summary: Vs30 with its range, each class with its probability and cautions. */
 export function siteSummary(site: SiteAssessment, unit: LengthUnit): string[] {
@@ -10,10 +34,14 @@ export function siteSummary(site: SiteAssessment, unit: LengthUnit): string[] {
   const kind = site.estimatedFromVp ? 'ESTIMATED from Vp (not a measured site class)' : site.estimated ? 'ESTIMATED (velocities entered as estimates)' : 'from measured shear-wave velocities';
   out.push(`Site class, ${kind}`);
   const along = site.alongLine.map((a) => a.vs30);
-  const spread = site.vs30High - site.vs30Low > 1e-9 * site.vs30;
-  out.push(`  Vs30 ${v(site.vs30)} ${label} ${spread ? `(5th-95th percentile ${v(site.vs30Low)} to ${v(site.vs30High)} ${label}, ${site.draws} Monte Carlo draws, seed ${site.seed})` : '(no standard errors were given, so no range)'}`);
-  if (along.length > 1) out.push(`  along the line: ${v(Math.min(...along))} to ${v(Math.max(...along))} ${label} at ${along.length} stations`);
-  if (site.extrapolated > 0) out.push(`  ${fromMetres(site.extrapolated, unit).toFixed(1)} ${unit} of the top 30 m are extrapolated (the deepest velocity extended)`);
+  if (site.draws > 0 && site.vs30Low !== undefined && site.vs30High !== undefined) {
+    out.push(`  Vs30 ${formatVelocity(site.vs30, unit)} (5th to 95th percentile ${formatVelocity([site.vs30Low, site.vs30High], unit, 0, ' to ')}, ${site.draws} Monte Carlo draws, seed ${site.seed})`);
+  } else {
+    out.push(`  Vs30 ${formatVelocity(site.vs30, unit)}; no uncertainty was given (no standard error of any velocity or depth), so no range and no class probabilities are computed`);
+  }
+  if (along.length > 1) out.push(`  along the line: ${formatVelocity([Math.min(...along), Math.max(...along)], unit, 0, ' to ')} at ${along.length} stations`);
+  if (site.extrapolated > 0) out.push(`  ${formatLength(site.extrapolated, unit, 1)} of the top ${formatLength(30, unit, 0)} are extrapolated (the deepest velocity extended)`);
+  out.push(...vsProfileTable(site.vsProfile, unit));
   out.push(...table(
     ['standard', 'table', `v̄s (${label})`, 'class', 'probability', 'note'],
     site.classes.map((c) => [
@@ -21,14 +49,15 @@ export function siteSummary(site: SiteAssessment, unit: LengthUnit): string[] {
       c.table,
       v(c.averageVelocity),
       site.estimated ? `${c.class} (estimated)` : c.class,
-      `${Math.round(c.probability * 100)} %`,
+      c.probability === undefined ? 'not computed' : `${Math.round(c.probability * 100)} %`,
       [c.borderline ? `borderline: ${c.neighbour ?? 'another class'} possible` : '', c.basis === 'profile shape' ? `by profile shape (velocity alone: ${c.velocityClass})` : '',
-        c.estimatedRange ? `v̄s/1.3, v̄s, 1.3 v̄s: ${c.estimatedRange.low.class}, ${c.estimatedRange.central.class}, ${c.estimatedRange.high.class}` : ''].filter(Boolean).join('; '),
+        c.classByEstimate ? `needs measured Vs (${c.measuredOnlyClause})` : '',
+        c.estimatedRange ? `v̄s/${c.estimatedRange.factor}, v̄s, ${c.estimatedRange.factor} v̄s: ${c.estimatedRange.low.class}, ${c.estimatedRange.central.class}, ${c.estimatedRange.high.class}` : ''].filter(Boolean).join('; '),
     ]),
   ).map((s) => `  ${s}`));
-  for (const c of site.classes) for (const note of c.notes) out.push(`  ${c.standard}: ${note}`);
+  for (const c of site.classes) for (const note of c.noteTexts) out.push(`  ${c.standard}: ${displayText(note, unit)}`);
   out.push('  Cautions on the site class');
-  for (const c of site.cautions) out.push(`  - ${c.message}`);
+  for (const c of site.cautions) out.push(`  - ${displayText(c, unit)}`);
   out.push('');
   return out;
 }

@@ -1,8 +1,15 @@
+import { hiddenLayerText } from '../core/cautions.js';
 import { fromMetres, velocityLabel, type LengthUnit } from '../core/units.js';
 import type { InterpretationResult } from '../interpret.js';
 import { VERSION } from '../interpret.js';
 import { plusMinus, table } from './format.js';
-import { siteSummary } from './siteSummary.js';
+import { siteSummary, vsProfileTable } from './siteSummary.js';
+import { displayText } from './unitText.js';
+
+/** "1 branch", "2 branches". */
+export function count(n: number, singular: string, plural = `${singular}s`): string {
+  return `${n} ${n === 1 ? singular : plural}`;
+}
 
 /**
  * The readable summary of an interpretation for the terminal: layers with velocity ± standard
@@ -17,7 +24,7 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
   const out: string[] = [];
   out.push(`hammerline ${VERSION}: ${result.file}`);
   const outliers = result.fits.reduce((n, f) => n + f.outlierRows.length, 0);
-  out.push(`${result.wave}-wave line, ${result.fits.length} branches from ${new Set(result.fits.map((f) => f.branch.sourceId)).size} sources, ${result.picksUsed} of ${result.picksTotal} picks used (${outliers} outlier${outliers === 1 ? '' : 's'} left out), line-fit RMS ${(result.fitRmsSeconds * 1e3).toFixed(2)} ms`);
+  out.push(`${result.wave}-wave line, ${count(result.fits.length, 'branch', 'branches')} from ${count(new Set(result.fits.map((f) => f.branch.sourceId)).size, 'source')}, ${result.picksUsed} of ${count(result.picksTotal, 'pick')} used (${count(outliers, 'outlier')} left out), line-fit RMS ${(result.fitRmsSeconds * 1e3).toFixed(2)} ms`);
   out.push('');
   out.push(`Layers (velocity ± standard error; true velocity and dip from forward and reverse branches)`);
   out.push(...table(
@@ -57,12 +64,13 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
     if (grmInfo) out.push(`  GRM optimum XY ${fromMetres(Number(grmInfo.optimum_xy_m), unit).toFixed(2)} ${unit} (from the ${String(grmInfo.optimum_xy_basis)}), sources ${String(grmInfo.source_forward)} and ${String(grmInfo.source_reverse)}`);
     const velocities = Object.entries(r.methodInfo).filter(([, info]) => info.velocity_mps !== undefined).map(([m, info]) => `${m} ${Math.round(vel(Number(info.velocity_mps)))} ± ${Math.round(vel(Number(info.velocity_se_mps)))}`);
     if (velocities.length > 0) out.push(`  Refractor velocity by method (${vLabel}): ${velocities.join('; ')}`);
+    if (r.hiddenLayer) out.push(`  Hidden-layer limit: ${displayText(hiddenLayerText(r), unit)}`);
     const qualifying = result.warnings.filter((w) => w.layer === r.index + 1);
-    for (const w of qualifying) out.push(`  ! ${w.message}`);
+    for (const w of qualifying) out.push(`  ! [${w.code}] ${displayText(w, unit)}`);
     out.push('');
   }
   if (result.forward) {
-    out.push(`Forward check: first arrivals computed through the interpreted section match the ${result.forward.picks} picks to ${(result.forward.rms * 1e3).toFixed(2)} ms RMS (worst ${(result.forward.worst.difference * 1e3).toFixed(2)} ms, source ${result.forward.worst.sourceId} at x = ${len(result.forward.worst.receiverX).toFixed(2)} ${unit})`);
+    out.push(`Forward check: first arrivals computed through the interpreted section match the ${count(result.forward.picks, 'pick')} to ${(result.forward.rms * 1e3).toFixed(2)} ms RMS (worst ${(result.forward.worst.difference * 1e3).toFixed(2)} ms, source ${result.forward.worst.sourceId} at x = ${len(result.forward.worst.receiverX).toFixed(2)} ${unit})`);
   }
   if (result.reciprocal.length > 0) {
     const bad = result.reciprocal.filter((c) => !c.ok);
@@ -70,12 +78,17 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
     out.push('');
   }
   if (result.site) out.push(...siteSummary(result.site, unit));
-  else if (result.wave === 'P') out.push('Site class: not computed. Vs cannot be had from Vp alone: give --poisson or --vp-vs to estimate it, or interpret an S-wave line.', '');
-  const general = result.warnings;
-  out.push(general.length === 0 ? 'Warnings: none' : `Warnings (${general.length})`);
-  for (const w of general) out.push(`  - [${w.code}] ${w.message}`);
+  else if (result.siteNotClassified) {
+    out.push('Site class: not estimated', `  ${displayText(result.siteNotClassified.reason, unit)}.`, ...vsProfileTable(result.siteNotClassified.vsLayers, unit), '');
+  } else if (result.wave === 'P') out.push('Site class: not computed. Vs cannot be had from Vp alone: give --poisson or --vp-vs to estimate it, or interpret an S-wave line.', '');
+  // A warning that qualifies a refractor is printed once, under it; the rest here.
+  const shown = new Set(result.refractors.map((r) => r.index + 1));
+  const general = result.warnings.filter((w) => (w.layer === undefined || !shown.has(w.layer)) && !(result.siteNotClassified && w.code === 'vs-from-vp-saturated'));
+  const above = result.warnings.length - general.length;
+  out.push(result.warnings.length === 0 ? 'Warnings: none' : `Warnings (${result.warnings.length}${above > 0 ? `; ${above} shown above, where ${above === 1 ? 'it qualifies' : 'they qualify'} a result` : ''})`);
+  for (const w of general) out.push(`  - [${w.code}] ${displayText(w, unit)}`);
   out.push('');
   out.push('Cautions');
-  for (const c of result.cautions) out.push(`  - ${c.message}`);
+  for (const c of result.cautions) out.push(`  - ${displayText(c, unit)}`);
   return out.join('\n') + '\n';
 }

@@ -1,14 +1,40 @@
+import { inWaterBand, WATER_TABLE_VP_MAX, WATER_TABLE_VP_MIN } from '../core/cautions.js';
 import { InputError } from '../core/errors.js';
+import { si, vel, type SiText } from '../core/siText.js';
 import { depthAt } from '../depth/delayProfile.js';
 import type { Interpretation, Layer, Refractor } from '../core/types.js';
 import type { InterpretationResult } from '../interpret.js';
-import type { SiteInput, SiteStation } from './siteAssessment.js';
+import type { SiteInput, SiteStation, VsLayer } from './siteAssessment.js';
 import { poissonFromRatio, vpVsRatio } from './vsFromVp.js';
 
-/** How to get shear-wave velocities from a P-wave line: one Poisson's ratio or Vp/Vs per layer, or one for all. */
+/** Half-width of the range a Poisson's ratio is drawn from uniformly in the Monte Carlo, by default. */
+export const POISSON_HALF_WIDTH = 0.05;
+/** Largest Poisson's ratio drawn (0.5 is a fluid, with no Vs). */
+export const POISSON_MAX = 0.49;
+
+/**
+ * How to get shear-wave velocities from a P-wave line: one Poisson's ratio or Vp/Vs per layer, or
+ * one for all; and, for single layers (those in or below the water table need them), their own
+ * Poisson's ratio or Vs.
+ */
 export interface VsFromVpOptions {
   poisson?: number[];
   vpVs?: number[];
+  /** Poisson's ratio of single layers, by layer index (1 = top). */
+  layerPoisson?: Record<number, number>;
+  /** Shear-wave velocity of single layers, by layer index, in m/s, with its standard error. */
+  layerVs?: Record<number, { velocity: number; se: number }>;
+  /** Half-width of the uniform range each Poisson's ratio is drawn from; default POISSON_HALF_WIDTH. */
+  poissonHalfWidth?: number;
+}
+
+/** The site-assessment input of a line, or why it has none although Vs from Vp was asked for. */
+export interface SitePlan {
+  input?: SiteInput;
+  /** Per layer, how Vs was had or why it could not be (P lines given a Poisson's ratio or Vs). */
+  vsLayers?: VsLayer[];
+  /** Why no class is given, when Vs could not be had for every layer. */
+  refused?: SiText;
 }
 
 /**
@@ -22,20 +48,98 @@ export interface VsFromVpOptions {
 export function siteInputFromInterpretation(
   result: Pick<Interpretation, 'file' | 'wave' | 'layers' | 'refractors'>, receiverXs: number[], vsFromVp: VsFromVpOptions = {},
 ): SiteInput | undefined {
+  return planSite(result, receiverXs, vsFromVp).input;
+}
+
+/**
+ * The site-assessment input of an interpretation, with the per-layer Vs profile. On a P line,
+ * Vs is had from Vp only where it can be: never through a layer whose Vp lies in the band of
+ * saturated soil (1450-1650 m/s) nor through a layer below it (below the water table Vp follows
+ * the pore water, about 1480-1500 m/s, whatever the soil's stiffness: common practice), unless
+ * the user gives that layer's own Poisson's ratio or Vs. Otherwise no input, and `refused` says
+ * why and what to provide.
+ *
+ * @throws InputError for a ratio list of the wrong length, a ratio out of range, or a layer index that does not exist
+ */
+export function planSite(
+  result: Pick<Interpretation, 'file' | 'wave' | 'layers' | 'refractors'>, receiverXs: number[], vsFromVp: VsFromVpOptions = {},
+): SitePlan {
   // Without the top layer (no direct wave) there is no profile from the surface to average.
-  if (result.layers[0]?.index !== 1) return undefined;
+  if (result.layers[0]?.index !== 1) return {};
   const layers = result.layers.slice(0, result.refractors.length + 1);
-  let velocities = layers.map((l) => l.velocity);
-  let velocitySes = layers.map((l) => l.velocitySe);
-  let poisson: number[] | undefined;
-  if (result.wave === 'P') {
-    poisson = poissonList(vsFromVp, layers, result.file);
-    if (poisson === undefined) return undefined;
-    const ratios = poisson.map(vpVsRatio);
-    velocities = velocities.map((v, i) => v / ratios[i]);
-    velocitySes = velocitySes.map((se, i) => se / ratios[i]);
+  const stations = () => stationsAlong(result.refractors, receiverXs);
+  if (result.wave !== 'P') {
+    return { input: { velocities: layers.map((l) => l.velocity), velocitySes: layers.map((l) => l.velocitySe), stations: stations(), estimatedFromVp: false } };
   }
-  return { velocities, velocitySes, stations: stationsAlong(result.refractors, receiverXs), estimatedFromVp: result.wave === 'P', poisson };
+  const vsLayers = vsFromVpLayers(vsFromVp, layers, result.file);
+  if (vsLayers === undefined) return {};
+  const missing = vsLayers.filter((l) => l.basis === 'not-estimated');
+  if (missing.length > 0) return { vsLayers, refused: refusal(missing) };
+  const poisson = vsLayers.map((l) => l.poisson ?? poissonFromRatio(l.vp! / l.vs!));
+  return {
+    vsLayers,
+    input: {
+      velocities: vsLayers.map((l) => l.vs!),
+      velocitySes: vsLayers.map((l) => l.vsSe ?? 0),
+      stations: stations(),
+      estimatedFromVp: true,
+      poisson,
+      vsLayers,
+    },
+  };
+}
+
+function refusal(missing: VsLayer[]): SiText {
+  const band = missing.filter((l) => l.saturated === 'water-band');
+  const below = missing.filter((l) => l.saturated === 'below-water-table');
+  const names = (list: VsLayer[]) => list.map((l) => l.index).join(', ');
+  const example = missing[0].index;
+  const inBand = band.length > 0 ? si`layer${band.length > 1 ? 's' : ''} ${names(band)} (Vp ${vel(band.map((l) => l.vp!))}) ${band.length > 1 ? 'lie' : 'lies'} in the band of saturated soil` : si``;
+  const under = below.length > 0 ? si`${band.length > 0 ? ' and ' : ''}layer${below.length > 1 ? 's' : ''} ${names(below)} ${below.length > 1 ? 'lie' : 'lies'} below the water table` : si``;
+  const head = si`no site class is estimated from Vp: `;
+  const tail = si` (a P-wave velocity of ${vel([WATER_TABLE_VP_MIN, WATER_TABLE_VP_MAX], 0, '-')} marks the water table). Below the water table Vp follows the pore water rather than the soil, so one Poisson's ratio for every layer cannot turn it into a Vs. Give each such layer its own value from a boring or a downhole test (for example --layer-poisson ${example}:0.45 or --layer-vs ${example}:250), or shoot an S-wave line`;
+  const pieces = [head, inBand, under, tail];
+  return { text: pieces.map((p) => p.text).join(''), parts: pieces.flatMap((p) => p.parts) };
+}
+
+/** Per layer, how its Vs is had: the user's own value for the layer, else the ratio for all (not in or below the water table). */
+function vsFromVpLayers(options: VsFromVpOptions, layers: Layer[], file: string): VsLayer[] | undefined {
+  const global = poissonList(options, layers, file);
+  const ownPoisson = options.layerPoisson ?? {};
+  const ownVs = options.layerVs ?? {};
+  for (const [name, given] of [['--layer-poisson', ownPoisson], ['--layer-vs', ownVs]] as const) {
+    for (const key of Object.keys(given)) {
+      const index = Number(key);
+      if (!(Number.isInteger(index) && index >= 1 && index <= layers.length)) {
+        throw new InputError({ file }, `${name} ${key}:...: this line has no layer ${key}; expected a layer from 1 to ${layers.length} (1 = top)`);
+      }
+    }
+  }
+  for (const [key, nu] of Object.entries(ownPoisson)) {
+    if (!(nu >= 0 && nu < 0.5)) throw new InputError({ file }, `--layer-poisson ${key}:${nu}: Poisson's ratio out of range; expected at least 0 and below 0.5`);
+  }
+  if (global === undefined && Object.keys(ownPoisson).length === 0 && Object.keys(ownVs).length === 0) return undefined;
+  const half = options.poissonHalfWidth ?? POISSON_HALF_WIDTH;
+  const wet = layers.findIndex((l) => inWaterBand(l.velocity));
+  return layers.map((layer, i): VsLayer => {
+    const saturated: VsLayer['saturated'] = wet >= 0 && i >= wet ? (i === wet || inWaterBand(layer.velocity) ? 'water-band' : 'below-water-table') : undefined;
+    const base = { index: layer.index, vp: layer.velocity, vpSe: layer.velocitySe, ...(saturated ? { saturated } : {}) } as const;
+    const vs = ownVs[layer.index];
+    if (vs !== undefined) {
+      if (!(vs.velocity > 0 && vs.velocity < layer.velocity)) {
+        throw new InputError({ file }, `--layer-vs ${layer.index}:${Math.round(vs.velocity)} m/s: expected a shear-wave velocity above 0 and below the layer's Vp, ${Math.round(layer.velocity)} m/s (shear waves are slower than P waves in the same material)`);
+      }
+      return { ...base, basis: 'given-vs', ownValue: true, vs: vs.velocity, vsSe: vs.se };
+    }
+    const own = ownPoisson[layer.index];
+    // A list with one ratio per layer gives each layer its own; one ratio for all does not reach below the water table.
+    const perLayer = (options.poisson ?? options.vpVs ?? []).length > 1;
+    const nu = own ?? (saturated && !perLayer ? undefined : global?.[i]);
+    if (nu === undefined) return { ...base, basis: 'not-estimated' };
+    const range: [number, number] = [Math.max(0, nu - half), Math.min(POISSON_MAX, nu + half)];
+    const ratio = vpVsRatio(nu);
+    return { ...base, basis: 'poisson', ownValue: own !== undefined || perLayer, poisson: nu, poissonRange: range, vs: layer.velocity / ratio, vsSe: layer.velocitySe / ratio };
+  });
 }
 
 function poissonList(options: VsFromVpOptions, layers: Layer[], file: string): number[] | undefined {

@@ -186,7 +186,7 @@ describe('hammerline site and the site section of interpret', () => {
     const { code, stdout } = run(['interpret', 'survey-examples/alluvial-terrace/sh-first-breaks.csv']);
     expect(code).toBe(0);
     expect(stdout).toMatch(/Site class, from measured shear-wave velocities/);
-    expect(stdout).toMatch(/Vs30 \d+ m\/s \(5th-95th percentile \d+ to \d+ m\/s/);
+    expect(stdout).toMatch(/Vs30 \d+ m\/s \(5th to 95th percentile \d+ to \d+ m\/s/);
     expect(stdout).toMatch(/ASCE 7-16 +Table 20\.3-1 +\d+ +C +\d+ %/);
     expect(stdout).toMatch(/Class F/);
   });

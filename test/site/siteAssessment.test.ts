@@ -21,7 +21,8 @@ describe('assessSite', () => {
     const c = assessSite(input, { seed: 10 });
     expect(b).toEqual(a);
     expect(c.vs30Low).not.toBe(a.vs30Low);
-    expect(Math.abs(c.vs30Low / a.vs30Low - 1)).toBeLessThan(0.01);
+    expect(a.vs30Low).toBeDefined();
+    expect(Math.abs(c.vs30Low! / a.vs30Low! - 1)).toBeLessThan(0.01);
   });
 
   it('assessSite class probabilities sum to 1 for every standard', () => {
@@ -32,7 +33,8 @@ describe('assessSite', () => {
 
   it('assessSite of a profile in the middle of a class gives that class with probability near 1', () => {
     // 600 m/s throughout: ASCE 7-16 C (365.76 to 762), ASCE 7-22 C (441.96 to 640.08), EN 1998-1 B (360 to 800).
-    const middle: SiteInput = { velocities: [600, 600], velocitySes: [10, 10], stations: [{ x: 0, depths: [10], depthSes: [0.5] }], estimatedFromVp: false };
+    // Known to 28 m, so the widened extension (1 % per metre extrapolated) hardly spreads it.
+    const middle: SiteInput = { velocities: [600, 600], velocitySes: [10, 10], stations: [{ x: 0, depths: [28], depthSes: [0.5] }], estimatedFromVp: false };
     const classes = assessSite(middle).classes;
     expect(classes.map((c) => c.class)).toEqual(['C', 'C', 'B']);
     for (const c of classes) {
@@ -65,7 +67,7 @@ describe('assessSite', () => {
     const asce22 = site.classes.find((c) => c.standard === 'ASCE 7-22')!;
     expect(asce22.estimatedRange!.low.velocity).toBeCloseTo(asce22.averageVelocity / 1.3, 9);
     expect(asce22.estimatedRange!.high.velocity).toBeCloseTo(asce22.averageVelocity * 1.3, 9);
-    expect(site.cautions.map((c) => c.code)).toEqual(expect.arrayContaining(['vs-estimated', 'water-table-ambiguity']));
+    expect(site.cautions.map((c) => c.code)).toEqual(expect.arrayContaining(['vs-estimated-from-vp']));
     expect(site.classes.find((c) => c.standard === 'ASCE 7-16')!.estimatedRange).toBeUndefined();
   });
 

@@ -24,8 +24,11 @@ export const ASCE_7_16: SiteClassStandard = {
   boundaryRule: 'above the lower bound, up to and including the upper bound: a value on a bound goes to the softer class',
   provenance: 'bounds as published in Table 20.3-1 (checked against public reproductions); the boundary rule follows a public USGS table',
   notFromVelocity: [
-    'Class F (Section 20.3.1: liquefiable, quick, highly sensitive or collapsible soils; more than 10 ft of peat or highly organic clay; more than 25 ft of very high plasticity clay; more than 120 ft of soft to medium stiff clay) cannot be detected by refraction and needs borings and a site response analysis.',
-    'Class E also applies to any profile with more than 10 ft of soil with PI > 20, w ≥ 40 % and su < 500 psf; only borings can show it.',
-    'Classes A and B need measured shear-wave velocities and not more than 10 ft of soil between the rock surface and the bottom of a spread footing or mat (Section 20.3).',
+    { code: 'asce7-16-class-f', text: 'Class F (Section 20.3.1: liquefiable, quick, highly sensitive or collapsible soils; more than 10 ft of peat or highly organic clay; more than 25 ft of very high plasticity clay; more than 120 ft of soft to medium stiff clay) cannot be assigned from shear-wave velocities; it needs borings and a site response analysis (Section 21.1).' },
+    { code: 'asce7-16-class-e-soil', text: 'Class E also applies to any profile with more than 10 ft of soil with PI > 20, w ≥ 40 % and su < 500 psf (Section 20.3.2); only borings and laboratory tests can show it.' },
+    { code: 'asce7-16-classes-a-b', text: 'Classes A and B need shear-wave velocities measured on site, and not more than 10 ft of soil between the rock surface and the bottom of a spread footing or mat (Sections 11.4.3 and 20.3).' },
   ],
+  // Section 11.4.3 and Section 20.3: A and B from measured velocities (SITE-CLASSES.md: [memory]
+  // for the measurement requirement, [partial] for the 10 ft of soil).
+  measuredOnly: { classes: ['A', 'B'], label: 'B or stiffer', clause: 'ASCE 7-16 Sections 11.4.3 and 20.3' },
 };

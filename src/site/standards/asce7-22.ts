@@ -27,7 +27,9 @@ export const ASCE_7_22: SiteClassStandard = {
   boundaryRule: 'above the lower bound, up to and including the upper bound: a value on a bound goes to the softer class',
   provenance: 'class set confirmed by a public agency service; bounds from a reproduction of Table 20.2-1, not the standard itself: confirm against the adopted edition',
   notFromVelocity: [
-    'Class F (liquefiable, quick, highly sensitive or collapsible soils, thick peat or very high plasticity clay, as in ASCE 7-16 Section 20.3.1) cannot be detected by refraction and needs borings and a site response analysis.',
+    { code: 'asce7-22-class-f', text: 'Class F (Section 20.2: liquefiable, quick, highly sensitive or collapsible soils, thick peat or highly organic clay, very high plasticity clay, thick soft to medium stiff clay) cannot be assigned from shear-wave velocities; it needs borings and a site response analysis.' },
   ],
+  // Section 20.2: classes A and B from measured velocities (as ASCE 7-16; SITE-CLASSES.md [memory]).
+  measuredOnly: { classes: ['A', 'B'], label: 'B or stiffer', clause: 'ASCE 7-22 Section 20.2' },
   estimatedFactor: 1.3,
 };

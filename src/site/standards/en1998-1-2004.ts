@@ -17,10 +17,12 @@ export const EN_1998_1_2004: SiteClassStandard = {
     { class: 'B', lower: 360, upper: 800, description: 'very dense sand or gravel, or very stiff clay, tens of metres thick' },
     { class: 'A', lower: 800, description: 'rock, with at most 5 m of weaker material at the surface' },
   ],
-  boundaryRule: 'our convention: above the lower bound, up to and including the upper bound, so a value on a printed bound (180, 360, 800 m/s) goes to the softer ground type',
+  // The table prints "360 - 800"; a value on a printed bound is classed with the softer ground
+  // type (a reading chosen here as the conservative one, documented in DEVELOPERS.md).
+  boundaryRule: 'a value on a printed bound (180, 360 or 800 m/s) is classed with the softer ground type; confirm this reading with the National Annex that applies',
   provenance: 'bounds as published in Table 3.1 (public)',
   notFromVelocity: [
-    'Ground types S1 (at least 10 m of soft clay or silt with PI > 40 and high water content) and S2 (liquefiable soils, sensitive clays, any soil not in A to E or S1) need special studies; refraction cannot detect them.',
+    { code: 'en1998-1-s1-s2', text: 'Ground types S1 (at least 10 m of soft clay or silt with PI > 40 and high water content) and S2 (liquefiable soils, sensitive clays, any soil not in A to E or S1) need special studies (Section 3.1.2); they cannot be assigned from shear-wave velocities.' },
   ],
 };
 

@@ -20,10 +20,18 @@ export interface SiteClassStandard {
   bands: ClassBand[];
   /** How a value exactly on a bound is classed, in words, for the report. */
   boundaryRule: string;
-  /** How sure we are of the bounds (from SITE-CLASSES.md), shown with every class. */
+  /**
+   * How sure the code is of the bounds (from SITE-CLASSES.md). For contributors only: it is
+   * never shown to the user, who is told which table applied and to confirm it in the adopted edition.
+   */
   provenance: string;
-  /** Classes a refraction survey cannot assign (need borings or special studies), with why. */
-  notFromVelocity: string[];
+  /** Classes that shear-wave velocities cannot assign (they need borings or special studies), each with its own caution code. */
+  notFromVelocity: { code: string; text: string }[];
+  /**
+   * Classes the standard reserves for measured shear-wave velocities: an estimate that falls in
+   * one of them is reported as `label`, never as the class itself.
+   */
+  measuredOnly?: { classes: string[]; label: string; clause: string };
   /** Rule for estimated (not measured) velocities, when the edition has one. */
   estimatedFactor?: number;
 }
