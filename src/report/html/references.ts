@@ -32,8 +32,8 @@ export function methodReferences(history: HistoryStep[], options: { picked: bool
   }
   for (const step of history) {
     const p = step.parameters;
-    if (step.step === 'splitBranches') continue;
-    if (step.step === 'segmentedRegression') {
+    if (step.step === 'split_branches') continue;
+    if (step.step === 'segmented_regression') {
       out.push({ method: 'Segmented least-squares regression of time against offset', purpose: 'apparent velocities, intercept times and crossover distances of each branch; the number of segments by the Bayesian information criterion; outliers by the modified z-score', references: ['Schwarz, G. (1978). Estimating the dimension of a model. Annals of Statistics 6, 461–464.', 'Iglewicz, B. & Hoaglin, D. C. (1993). How to Detect and Handle Outliers. ASQC Quality Press, Milwaukee.'] });
       if (p.statics === true) out.push({ method: 'Refraction statics (receiver delay times)', purpose: 'segmentation of branches straightened for near-surface delays', references: [DEPTH_METHODS['delay-time'].references[0]] });
     } else if (step.step === 'layers') {

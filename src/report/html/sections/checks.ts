@@ -40,14 +40,14 @@ ${pickingText}<p>${edits}</p></section>`;
 }
 
 function editedChoices(input: ReportInput): string {
-  const step = input.result.history.find((s) => s.step === 'segmentedRegression');
-  const segments = (step?.parameters.fixedSegments ?? {}) as Record<string, number>;
-  const breakpoints = (step?.parameters.fixedBreakpoints_m ?? {}) as Record<string, number[]>;
+  const step = input.result.history.find((s) => s.step === 'segmented_regression');
+  const segments = (step?.parameters.fixed_segments ?? {}) as Record<string, number>;
+  const breakpoints = (step?.parameters.fixed_breakpoints_m ?? {}) as Record<string, number[]>;
   const parts = [
     ...Object.entries(segments).map(([branch, n]) => `${branch === '*' ? 'every branch' : escapeHtml(branch)}: ${n} segment${n === 1 ? '' : 's'}`),
     ...Object.entries(breakpoints).map(([branch, xs]) => `${escapeHtml(branch)}: breakpoints at offsets ${xs.map((x) => x.toFixed(2)).join(', ')} m`),
   ];
-  if (step?.parameters.directThroughOrigin === true) parts.push('direct wave forced through the origin');
+  if (step?.parameters.direct_through_origin === true) parts.push('direct wave forced through the origin');
   return parts.length === 0 ? 'No pick was edited and no segment choice was fixed by hand: the segments are those chosen by the criterion.' : `Choices fixed by the interpreter: ${parts.join('; ')}.`;
 }
 

@@ -70,7 +70,7 @@ export function summarySection(input: ReportInput, fig: Figures): string {
 
 /** Three sentences: what refraction cannot see here, how sure the site class is, what must confirm the result. */
 function mainLimitations(input: ReportInput, warnings: DocWarning[], estimated: boolean): string[] {
-  const hidden = warnings.filter((w) => w.code === 'hidden-layer-limit');
+  const hidden = warnings.filter((w) => w.code === 'hidden-layer-limit'); // raised only where the fit left out a segment
   const first = hidden.length > 0
     ? `A hidden layer or a velocity inversion would not be seen: here a layer thin enough to stay hidden could make the deepest refractor deeper than shown (see section 9).`
     : 'A hidden layer or a velocity inversion would not be seen, and would make the depths too shallow or too deep.';

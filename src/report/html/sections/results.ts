@@ -1,3 +1,4 @@
+import { hiddenLayerText } from '../../../core/cautions.js';
 import { escapeHtml } from '../escape.js';
 import type { Figures } from '../figures.js';
 import { depthSectionSvg, METHOD_DASH, REFRACTOR_COLOURS } from '../svg/depthSection.js';
@@ -65,7 +66,9 @@ export function depthTableSection(input: ReportInput, fig: Figures): string {
     const intercept = r.byMethod['intercept-time'] ?? [];
     const interceptText = intercept.length === 0 ? '' : `<p class="note">Intercept-time depths under the sources: ${intercept.map((p, i) => `${escapeHtml(p.sourceId ?? '')} at x = ${fig.num(`${path}.by_method.intercept-time.${i}.x_m`, 2)} m: ${fig.pm(`${path}.by_method.intercept-time.${i}.depth_m`, `${path}.by_method.intercept-time.${i}.depth_se_m`, 2)} m`).join('; ')}.</p>`;
     const qualifying = result.warnings.filter((w) => w.layer === r.index + 1);
-    const cautions = qualifying.length === 0 ? '' : `<ul class="qualifiers">${qualifying.map((w) => `<li>${escapeHtml(w.message)}</li>`).join('')}</ul>`;
+    const limit = r.hiddenLayer ? [`Hidden-layer limit: ${hiddenLayerText(r).text}`] : [];
+    const lines = [...limit, ...qualifying.map((w) => w.message)];
+    const cautions = lines.length === 0 ? '' : `<ul class="qualifiers">${lines.map((line) => `<li>${escapeHtml(line)}</li>`).join('')}</ul>`;
     return `<h3>Refractor ${r.index}: top of layer ${r.index + 1} (${fig.num(`layers.${r.index}.velocity_mps`, 0)} m/s); recommended: ${escapeHtml(r.method)}</h3>
 <table class="data depths"><thead><tr><th>Station</th><th>x (m)</th><th>Ground elevation (m)</th><th>Recommended depth ± SE (m)</th><th>Refractor elevation (m)</th><th>Method</th>${methods.map((m) => `<th>${escapeHtml(m)} depth (m)</th>`).join('')}</tr></thead><tbody>${rows}</tbody></table>${interceptText}${cautions}`;
   }).join('');
