@@ -3,6 +3,7 @@ import { InputError } from '../core/errors.js';
 import type { Wave } from '../core/types.js';
 import type { LengthUnit } from '../core/units.js';
 import type { SiteOptions } from '../site/siteAssessment.js';
+import { decodeUtf8 } from '../io/decodeUtf8.js';
 import type { CliIo } from './io.js';
 
 /** Parses "NAME=VALUE" into its parts, for options like --segments S1:forward=3. */
@@ -51,12 +52,15 @@ export function listOption(option: string, text: string, expected: string): numb
   return text.split(',').map((v) => numberOption(option, v, expected));
 }
 
+/** Reads a text input (a table) as strict UTF-8: a byte that is not UTF-8 is an error naming its line and field. */
 export function readInput(io: CliIo, file: string): string {
+  let bytes: Uint8Array;
   try {
-    return io.readText(file);
+    bytes = io.readBytes(file);
   } catch (error) {
     throw new InputError({ file }, `cannot be read (${(error as NodeJS.ErrnoException).code ?? (error as Error).message}); expected a readable first-break table`);
   }
+  return decodeUtf8(bytes, file);
 }
 
 export function lengthUnitOption(text: string | undefined): LengthUnit {

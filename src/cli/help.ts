@@ -38,6 +38,10 @@ Options for interpret:
                            where the trigger is sound)
   --allow-short-branches   leave out sides of a source with fewer than 3 picks instead of stopping
   -q, --quiet              no progress messages on stderr
+  --accept-velocities      read times and lengths as given even where their median apparent
+                           velocity lies outside what the ground gives (P 50-8000 m/s, S 30-5000
+                           m/s; the check that catches seconds in time_ms, feet as metres, a
+                           SEG-2 SAMPLE_INTERVAL in milliseconds); a warning instead of a stop
 
 Site class (Vs30; ASCE 7-16, ASCE 7-22, EN 1998-1:2004), printed for S-wave lines, or for P-wave
 lines given a Poisson's ratio:
@@ -91,7 +95,8 @@ site: classes a hand-entered shear-wave profile (for example from a downhole tes
   --estimated              the velocities are estimates, not measurements
   --json, --units, --draws, --seed as above
 
-Exit status: 0 success, 2 bad input (message on stderr), 1 internal error.
+Exit status: 0 success, 2 bad input (message on stderr; in a batch, a bad file or record is
+reported and skipped and the others are done), 1 internal error (a fault of the program).
 `;
 
 /** The text of hammerline tomography --help. */

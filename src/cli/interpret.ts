@@ -13,7 +13,7 @@ import { checkShearSlowerThanP } from '../site/fromInterpretation.js';
 import { keyValue, lengthUnitOption, listOption, numberOption, parse, readInput, SITE_OPTIONS, siteOptions, waveOption } from './args.js';
 import { HELP } from './help.js';
 import { checkOutputPaths, type CliIo } from './io.js';
-import { GEOMETRY_OPTIONS, isSeg2, pickAll } from './records.js';
+import { GEOMETRY_OPTIONS, isSeg2, pickAll, traceLabeller } from './records.js';
 import { toMetres } from '../core/units.js';
 
 /** Options of interpret that choose how a line is interpreted; report accepts the same. */
@@ -27,6 +27,7 @@ export const INTERPRET_OPTIONS = {
   'allow-short-branches': { type: 'boolean' },
   quiet: { type: 'boolean', short: 'q' },
   help: { type: 'boolean', short: 'h' },
+  'accept-velocities': { type: 'boolean' },
   ...SITE_OPTIONS,
   poisson: { type: 'string' },
   'vp-vs': { type: 'string' },
@@ -42,6 +43,8 @@ export interface InterpretChoices {
   wave: Wave | undefined;
   options: InterpretOptions;
   pLine?: InterpretationResult;
+  /** Read times and lengths as given where their apparent velocities look like a unit mistake (a warning instead). */
+  acceptVelocities: boolean;
 }
 
 /** Parses LAYER:VALUE[:VALUE] of the per-layer options. */
@@ -57,6 +60,7 @@ function layerValue(option: string, text: string, expected: string): [number, nu
 export function interpretChoices(values: Record<string, unknown>, io: CliIo): InterpretChoices {
   const unit = lengthUnitOption(values.units as string | undefined);
   const wave = waveOption(values.wave as string | undefined);
+  const acceptVelocities = Boolean(values['accept-velocities']);
   const options: InterpretOptions = {
     wave,
     directThroughOrigin: Boolean(values['through-origin']),
@@ -78,7 +82,7 @@ export function interpretChoices(values: Record<string, unknown>, io: CliIo): In
   if (values['p-line'] !== undefined) {
     const file = values['p-line'] as string;
     const log = new WarningLog();
-    pLine = interpret(readFirstBreaks(readInput(io, file), file, log, { lengthUnit: unit, wave: 'P' }), { ...options, wave: 'P', vsFromVp: undefined }, log);
+    pLine = interpret(readFirstBreaks(readInput(io, file), file, log, { lengthUnit: unit, wave: 'P', acceptVelocities }), { ...options, wave: 'P', vsFromVp: undefined }, log);
   }
   for (const text of (values.segments as string[] | undefined) ?? []) {
     options.segments ??= {};
@@ -94,23 +98,39 @@ export function interpretChoices(values: Record<string, unknown>, io: CliIo): In
     options.breakpoints[name] = list.split(',').map((v) => toMetres(numberOption('breakpoint', v, `an offset in ${unit === 'ft' ? 'feet' : 'metres'}`), unit));
   }
   if (values['max-segments'] !== undefined) options.maxSegments = numberOption('max-segments', values['max-segments'] as string, 'a count from 1 to 4');
-  return { unit, wave, options, pLine };
+  return { unit, wave, options, pLine, acceptVelocities };
 }
 
-/** The SEG-2 records of one line, picked and then interpreted together. */
-export function interpretRecords(records: string[], values: Record<string, unknown>, choices: InterpretChoices, io: CliIo): { result: InterpretationResult; table: FirstBreakTable; rows: PickRow[] } {
-  const rows = pickAll(records, values, choices.unit, io);
+/**
+ * The SEG-2 records of one line, picked and then interpreted together. A record that cannot be
+ * read or picked is reported on stderr, left out (a `record-skipped` warning) and listed in
+ * `skipped`; the caller exits non-zero.
+ */
+export function interpretRecords(records: string[], values: Record<string, unknown>, choices: InterpretChoices, io: CliIo): { result: InterpretationResult; table: FirstBreakTable; rows: PickRow[]; skipped: { file: string; message: string }[] } {
+  const { rows, skipped } = pickAll(records, values, choices.unit, io, choices.wave ?? 'P');
   const name = records.length === 1 ? records[0] : `${records[0]} and ${records.length - 1} more record${records.length > 2 ? 's' : ''}`;
   const log = new WarningLog();
+  for (const s of skipped) log.add('record-skipped', `${s.message}; the record was left out of the interpretation`);
   for (const sentence of unpickedSummary(rows)) log.add('unpicked-traces', sentence);
-  const table = readFirstBreaks(pickTableCsv(rows, 'm', false), name, log, { wave: choices.wave });
-  return { result: interpret(table, choices.options, log), table, rows };
+  // The picks reach the interpretation as a table; its rows are traces of records to the user.
+  const relabel = traceLabeller(rows);
+  let table: FirstBreakTable;
+  let result: InterpretationResult;
+  try {
+    table = readFirstBreaks(pickTableCsv(rows, 'm', false), name, log, { wave: choices.wave, acceptVelocities: choices.acceptVelocities });
+    result = interpret(table, choices.options, log);
+  } catch (error) {
+    if (error instanceof InputError) throw new InputError({}, relabel(error.message));
+    throw error;
+  }
+  for (const w of result.warnings) w.message = relabel(w.message);
+  return { result, table, rows, skipped };
 }
 
 /** One first-break table, read and interpreted (an S line checked against the P line when one is given). */
 export function interpretTable(file: string, choices: InterpretChoices, io: CliIo): { result: InterpretationResult; table: FirstBreakTable } {
   const log = new WarningLog();
-  const table = readFirstBreaks(readInput(io, file), file, log, { lengthUnit: choices.unit, wave: choices.wave });
+  const table = readFirstBreaks(readInput(io, file), file, log, { lengthUnit: choices.unit, wave: choices.wave, acceptVelocities: choices.acceptVelocities });
   const result = interpret(table, choices.options, log);
   if (choices.pLine !== undefined) {
     if (result.wave !== 'S') throw new InputError({ file }, '--p-line compares an S-wave line with a P-wave line; this line is not an S-wave line (use --wave S or a wave column)');
@@ -140,17 +160,18 @@ export function interpretCommand(args: string[], io: CliIo): number {
   const documents: Record<string, unknown>[] = [];
   const texts: string[] = [];
   let failed = 0;
+  let internalErrors = 0;
   const records = positionals.filter((file) => isSeg2(io, file));
   if (records.length > 0) {
     if (records.length !== positionals.length) {
       throw new InputError({ file: positionals.find((f) => !records.includes(f)) }, 'is a first-break table given with SEG-2 records; interpret either tables (one line each) or the records of one line, not both');
     }
-    const { result, table, rows } = interpretRecords(records, values, choices, io);
+    const { result, table, rows, skipped } = interpretRecords(records, values, choices, io);
     if (values.depths) io.writeText(values.depths as string, depthsCsv(result, receiverGround(table), unit));
     const output = values.json ? JSON.stringify(interpretationJson(result, { picking: { records, picked: rows.filter((r) => r.time !== undefined).length, traces: rows.length } }), null, 2) + '\n' : summary(result, unit);
     if (values.output) io.writeText(values.output as string, output);
     else io.stdout(output);
-    return 0;
+    return skipped.length > 0 ? 2 : 0;
   }
   if (values.depths && positionals.length > 1) throw new InputError({}, '--depths writes the depth table of one line; give one first-break table (or the records of one line)');
   positionals.forEach((file, i) => {
@@ -161,10 +182,15 @@ export function interpretCommand(args: string[], io: CliIo): number {
       if (values.json) documents.push(interpretationJson(result));
       else texts.push(summary(result, unit));
     } catch (error) {
-      if (!(error instanceof InputError) || positionals.length === 1) throw error;
-      failed++;
-      io.stderr(`hammerline: ${error.message}\n`);
-      if (values.json) documents.push({ schema: INTERPRETATION_SCHEMA, file, error: { message: error.message } });
+      if (positionals.length === 1) throw error;
+      // In a batch every file is tried: bad input is reported and skipped (status 2), and so is an
+      // internal error, reported as one (status 1), so that one file never loses the others.
+      const internal = !(error instanceof InputError);
+      if (internal) internalErrors++;
+      else failed++;
+      const message = internal ? `${file}: internal error (please report it with this file): ${error instanceof Error ? error.message : String(error)}` : error.message;
+      io.stderr(`hammerline: ${message}\n`);
+      if (values.json) documents.push({ schema: INTERPRETATION_SCHEMA, file, error: { message } });
       else texts.push(`hammerline: ${file}: not interpreted (see the message on stderr)\n`);
     }
   });
@@ -173,6 +199,7 @@ export function interpretCommand(args: string[], io: CliIo): number {
     : texts.join('\n');
   if (values.output) io.writeText(values.output as string, output);
   else io.stdout(output);
-  return failed > 0 ? 2 : 0;
+  if (failed + internalErrors > 0 && positionals.length > 1) io.stderr(`hammerline: ${failed + internalErrors} of ${positionals.length} files not interpreted\n`);
+  return internalErrors > 0 ? 1 : failed > 0 ? 2 : 0;
 }
 

@@ -1,4 +1,6 @@
 import { InputError } from '../core/errors.js';
+import type { Wave } from '../core/types.js';
+import { apparentVelocityProblem, medianApparentVelocity } from '../io/apparentVelocity.js';
 import { toMetres, type LengthUnit } from '../core/units.js';
 import { pickTableCsv, unpickedSummary } from '../io/pickTable.js';
 import { readSeg2 } from '../io/seg2/read.js';
@@ -47,34 +49,93 @@ function readRecord(io: CliIo, file: string): Seg2Record {
   return readSeg2(io.readBytes(file), file);
 }
 
-export function pickAll(files: string[], values: Record<string, unknown>, unit: LengthUnit, io: CliIo): PickRow[] {
+/** The picks of several records, and the records that could not be read or picked (each with its message). */
+export interface PickedRecords {
+  rows: PickRow[];
+  skipped: { file: string; message: string }[];
+}
+
+/**
+ * Picks every record. A record that cannot be read or picked, or whose picks give apparent
+ * velocities no ground has, is reported on stderr and skipped; the caller exits non-zero.
+ */
+export function pickAll(files: string[], values: Record<string, unknown>, unit: LengthUnit, io: CliIo, wave: Wave | 'any' = 'any'): PickedRecords {
   const options = recordOptions(values, unit, io);
   const rows: PickRow[] = [];
+  const skipped: PickedRecords['skipped'] = [];
   files.forEach((file, i) => {
     if (files.length > 1 && !values.quiet) io.stderr(`[${i + 1}/${files.length}] picking ${file}\n`);
-    const record = readRecord(io, file);
     try {
-      rows.push(...pickSeg2(record, options));
+      const record = readRecord(io, file);
+      let picked: PickRow[];
+      try {
+        picked = pickSeg2(record, options);
+      } catch (error) {
+        if (error instanceof RangeError) throw new InputError({ file }, error.message);
+        throw error;
+      }
+      checkRecordVelocities(record, picked, wave, Boolean(values['accept-velocities']), io);
+      for (const row of picked) rows.push(row);
     } catch (error) {
-      if (error instanceof RangeError) throw new InputError({ file }, error.message);
-      throw error;
+      if (!(error instanceof InputError) || files.length === 1) throw error;
+      io.stderr(`hammerline: ${error.message}\nhammerline: ${file}: skipped\n`);
+      skipped.push({ file, message: error.message });
     }
   });
-  return rows;
+  if (skipped.length === files.length) throw new InputError({}, `none of the ${files.length} records could be picked (see the messages above)`);
+  return { rows, skipped };
+}
+
+/**
+ * Judges the record's time and length units from its picks (apparentVelocity.ts): a median
+ * apparent velocity no ground has stops with the likely header fault named (SAMPLE_INTERVAL in
+ * milliseconds, coordinates in feet), unless --accept-velocities.
+ */
+function checkRecordVelocities(record: Seg2Record, picked: PickRow[], wave: Wave | 'any', accept: boolean, io: CliIo): void {
+  const good = picked.filter((r) => r.time !== undefined);
+  const velocity = medianApparentVelocity(good.map((r) => r.receiverX - r.sourceX), good.map((r) => r.time!));
+  if (velocity === undefined) return;
+  const interval = record.traces[0]?.keywords.SAMPLE_INTERVAL ?? '';
+  const problem = apparentVelocityProblem(velocity, wave, [
+    { factor: 1e3, advice: `SAMPLE_INTERVAL ${interval} looks like milliseconds, but SEG-2 gives seconds (ask for the record to be written again, or correct the header)` },
+    { factor: 1e6, advice: `SAMPLE_INTERVAL ${interval} looks like microseconds, but SEG-2 gives seconds` },
+    record.metresPerUnit === 1
+      ? { factor: 0.3048, advice: `the coordinates look like feet while UNITS says ${record.units}` }
+      : { factor: 1 / record.metresPerUnit, advice: `the coordinates look like metres while UNITS says ${record.units}` },
+  ]);
+  if (problem === undefined) return;
+  if (accept) io.stderr(`hammerline: ${record.file}: ${problem.replace(/\. If the values are right, give --accept-velocities$/, '')}; accepted as given (--accept-velocities)\n`);
+  else throw new InputError({ file: record.file }, problem);
+}
+
+/**
+ * Rewrites "row N" and "rows N, M" of the table made from picked records (pickTableCsv: header on
+ * line 1, one line per picked trace) as the record and trace they came from.
+ */
+export function traceLabeller(rows: PickRow[]): (text: string) => string {
+  const picked = rows.filter((r) => r.time !== undefined);
+  const label = (line: string) => {
+    const row = picked[Number(line) - 2];
+    return row === undefined ? `row ${line}` : `${row.file} trace ${row.trace}`;
+  };
+  return (text) => text
+    .replace(/\brows (\d+(?:, \d+)*)/g, (_, list: string) => list.split(', ').map(label).join(', '))
+    .replace(/\brow (\d+)/g, (_, line: string) => label(line));
 }
 
 export function pickCommand(args: string[], io: CliIo): number {
-  const { values, positionals } = parse(args, { ...GEOMETRY_OPTIONS, output: { type: 'string', short: 'o' }, units: { type: 'string' }, quiet: { type: 'boolean', short: 'q' }, help: { type: 'boolean', short: 'h' } });
+  const { values, positionals } = parse(args, { ...GEOMETRY_OPTIONS, output: { type: 'string', short: 'o' }, units: { type: 'string' }, quiet: { type: 'boolean', short: 'q' }, 'accept-velocities': { type: 'boolean' }, help: { type: 'boolean', short: 'h' } });
   if (values.help) { io.stdout(HELP); return 0; }
   if (positionals.length === 0) throw new InputError({}, 'pick needs at least one SEG-2 record (SHOT.seg2)');
   checkOutputPaths([...positionals, ...(typeof values.stations === 'string' ? [values.stations] : [])], [{ option: '-o', path: values.output as string | undefined }]);
   const unit = lengthUnitOption(values.units as string | undefined);
-  const rows = pickAll(positionals, values, unit, io);
+  const { rows, skipped } = pickAll(positionals, values, unit, io);
   for (const sentence of unpickedSummary(rows)) io.stderr(`hammerline: ${sentence}\n`);
   const csv = pickTableCsv(rows, unit);
   if (values.output) io.writeText(values.output as string, csv);
   else io.stdout(csv);
-  return 0;
+  if (skipped.length > 0) io.stderr(`hammerline: ${skipped.length} of ${positionals.length} records skipped: ${skipped.map((s) => s.file).join(', ')}\n`);
+  return skipped.length > 0 ? 2 : 0;
 }
 
 export function recordsCommand(args: string[], io: CliIo): number {

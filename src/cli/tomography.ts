@@ -64,10 +64,11 @@ export function tomographyCommand(args: string[], io: CliIo): number {
   const records = positionals.filter((file) => isSeg2(io, file));
   if (records.length > 0) {
     if (records.length !== positionals.length) throw new InputError({ file: positionals.find((f) => !records.includes(f)) }, 'is a first-break table given with SEG-2 records; give either one table or the records of one line');
-    const rows = pickAll(records, values, unit, io);
+    const { rows, skipped } = pickAll(records, values, unit, io, wave ?? 'P');
+    for (const s of skipped) log.add('record-skipped', `${s.message}; the record was left out`);
     for (const sentence of unpickedSummary(rows)) log.add('unpicked-traces', sentence);
     const name = records.length === 1 ? records[0] : `${records[0]} and ${records.length - 1} more record${records.length > 2 ? 's' : ''}`;
-    table = readFirstBreaks(pickTableCsv(rows), name, log, { wave });
+    table = readFirstBreaks(pickTableCsv(rows, 'm', false), name, log, { wave });
   } else {
     if (positionals.length > 1) throw new InputError({}, 'tomography images one line: give one first-break table (or the SEG-2 records of one line)');
     table = readFirstBreaks(readInput(io, positionals[0]), positionals[0], log, { lengthUnit: unit, wave });

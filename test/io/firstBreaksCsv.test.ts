@@ -61,15 +61,13 @@ describe('readFirstBreaks', () => {
     expect(error('source_x,receiver_x,time_ms,wave\n0,5,4,P\n0,6,9,S\n')).toMatch(/mixes P and S picks/);
   });
 
-  it('readFirstBreaks warns that millisecond times look like seconds (apparent velocity above 20 km/s)', () => {
-    // 10 m in 0.005 "ms" is 2,000,000 m/s: no near-surface material is that fast (common practice).
-    const { log } = read('source_x,receiver_x,time_ms\n0,10,0.005\n0,20,0.009\n0,30,0.012\n');
-    expect(log.withCode('time-unit')[0].message).toMatch(/look like seconds/);
+  it('readFirstBreaks stops when millisecond times look like seconds, naming time_s as the fix', () => {
+    // 10 m in 0.005 "ms" is 2,000,000 m/s: no ground is faster than 8000 m/s for P (common practice).
+    expect(error('source_x,receiver_x,time_ms\n0,10,0.005\n0,20,0.009\n0,30,0.012\n')).toMatch(/column time_ms: the median apparent velocity .* is 2222222 m\/s, .*the times look like seconds: put them in a time_s column .*that would make it 2222 m\/s/);
   });
 
-  it('readFirstBreaks warns that second times look like milliseconds (apparent velocity below 30 m/s)', () => {
-    const { log } = read('source_x,receiver_x,time_s\n0,10,5\n0,20,9\n0,30,12\n');
-    expect(log.withCode('time-unit')[0].message).toMatch(/look like milliseconds/);
+  it('readFirstBreaks stops when second times look like milliseconds', () => {
+    expect(error('source_x,receiver_x,time_s\n0,10,5\n0,20,9\n0,30,12\n')).toMatch(/the times look like milliseconds: put them in a time_ms column \(that would make it 2222 m\/s\)/);
   });
 
   it('readFirstBreaks keeps and reports unknown columns and warns of zero-offset picks', () => {

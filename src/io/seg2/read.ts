@@ -1,3 +1,4 @@
+import { notANumberHint, parseDecimal, parseInteger } from '../strictNumber.js';
 import { Seg2Error } from './errors.js';
 import type { Seg2Record, Seg2Trace } from './types.js';
 
@@ -34,6 +35,7 @@ export function readSeg2(bytes: Uint8Array, file: string): Seg2Record {
   if (revision !== 1) remarks.push(`revision ${revision}; revision 1 is the only one in use, read as revision 1`);
   const pointerBytes = u16(4);
   const traceCount = u16(6);
+  if (traceCount === 0) throw new Seg2Error(file, undefined, 'number of traces', 'is 0: the record holds no traces; expected at least one trace');
   if (traceCount * 4 > pointerBytes) {
     throw new Seg2Error(file, undefined, 'number of traces', `${traceCount} traces need ${traceCount * 4} bytes of trace pointers but the pointer block is ${pointerBytes} bytes; expected N × 4 ≤ M`);
   }
@@ -45,15 +47,13 @@ export function readSeg2(bytes: Uint8Array, file: string): Seg2Record {
   if (stringTerminator === undefined) throw new Seg2Error(file, undefined, 'string terminator length', `is ${bytes[8]}; expected 1 or 2`);
   const pointers: number[] = [];
   for (let i = 0; i < traceCount; i++) pointers.push(u32(32 + 4 * i));
-  const firstTrace = traceCount > 0 ? Math.min(...pointers) : bytes.byteLength;
+  let firstTrace = bytes.byteLength;
+  for (const pointer of pointers) firstTrace = Math.min(firstTrace, pointer);
   const fileStringsEnd = Math.min(firstTrace, bytes.byteLength);
   const fileStrings = readStrings(bytes, u16, 32 + pointerBytes, fileStringsEnd, stringTerminator, lineTerminator, remarks, 'file descriptor');
   const units = (fileStrings.keywords.UNITS ?? 'METERS').toUpperCase();
-  let metresPerUnit = UNITS_TO_METRES[units];
-  if (metresPerUnit === undefined) {
-    remarks.push(`UNITS ${units} is not one of METERS, FEET, INCHES, CENTIMETERS or NONE; coordinates read as metres`);
-    metresPerUnit = 1;
-  }
+  const metresPerUnit: number | undefined = UNITS_TO_METRES[units];
+  if (metresPerUnit === undefined) remarks.push(`UNITS ${units} is not one of METERS, FEET, INCHES, CENTIMETERS or NONE; coordinates in the headers cannot be used`);
 
   const traces: Seg2Trace[] = pointers.map((pointer, i) => {
     const index = i + 1;
@@ -85,24 +85,43 @@ export function readSeg2(bytes: Uint8Array, file: string): Seg2Record {
     }
     const strings = readStrings(bytes, u16, pointer + 32, dataStart, stringTerminator, lineTerminator, remarks, `trace ${index}`);
     const keywords = strings.keywords;
-    const sampleInterval = numberKeyword(keywords, 'SAMPLE_INTERVAL');
-    if (sampleInterval === undefined || !(sampleInterval > 0)) {
-      throw new Seg2Error(file, index, 'SAMPLE_INTERVAL', keywords.SAMPLE_INTERVAL === undefined ? 'is missing; expected the sample interval in seconds' : `"${keywords.SAMPLE_INTERVAL}" is not a positive number of seconds`);
+    const sampleInterval = decimalKeyword(file, index, keywords, 'SAMPLE_INTERVAL', 'the sample interval in seconds');
+    if (sampleInterval === undefined) throw new Seg2Error(file, index, 'SAMPLE_INTERVAL', 'is missing; expected the sample interval in seconds');
+    if (!(sampleInterval > 0) || sampleInterval > MAX_SAMPLE_INTERVAL_S) {
+      throw new Seg2Error(file, index, 'SAMPLE_INTERVAL', `${keywords.SAMPLE_INTERVAL} is not a sample interval in seconds (above 0, at most ${MAX_SAMPLE_INTERVAL_S} s)${sampleInterval > MAX_SAMPLE_INTERVAL_S ? '; it looks like milliseconds or microseconds, but SEG-2 gives seconds' : ''}`);
+    }
+    const delay = decimalKeyword(file, index, keywords, 'DELAY', 'the time of the first sample in seconds') ?? 0;
+    const recordLength = sampleCount * sampleInterval;
+    if (Math.abs(delay) > Math.max(recordLength, MAX_DELAY_S)) {
+      throw new Seg2Error(file, index, 'DELAY', `${keywords.DELAY} s puts the first sample ${delay < 0 ? 'before' : 'after'} the shot by more than ${MAX_DELAY_S} s and more than the record's length (${Number(recordLength.toPrecision(6))} s); expected the time of the first sample in seconds (a value in milliseconds does not follow SEG-2)`);
     }
     const raw = decode(view, dataStart, sampleCount, formatCode, little);
-    const descalingFactor = numberKeyword(keywords, 'DESCALING_FACTOR') ?? 1;
+    const descalingFactor = decimalKeyword(file, index, keywords, 'DESCALING_FACTOR', 'a non-zero scale factor') ?? 1;
+    if (descalingFactor === 0) throw new Seg2Error(file, index, 'DESCALING_FACTOR', 'is 0; expected a non-zero scale factor');
     const data = new Float32Array(sampleCount);
     for (let k = 0; k < sampleCount; k++) data[k] = raw[k] * descalingFactor;
     const location = (name: string) => {
       const value = keywords[name];
       if (value === undefined) return undefined;
-      const numbers = value.split(/\s+/).filter(Boolean).map(Number);
-      if (numbers.length === 0 || numbers.length > 3 || numbers.some((n) => !Number.isFinite(n))) {
-        throw new Seg2Error(file, index, name, `"${value}" is not one to three numbers (x [y [z]])`);
+      if (metresPerUnit === undefined) {
+        throw new Seg2Error(file, index, 'UNITS', `${units} is not one of METERS, FEET, INCHES, CENTIMETERS or NONE, and ${name} needs it; expected one of those in the file descriptor`);
       }
-      return numbers.map((n) => n * metresPerUnit);
+      const parts = value.split(/\s+/).filter(Boolean);
+      const numbers = parts.map(parseDecimal);
+      if (numbers.length === 0 || numbers.length > 3 || numbers.some((n) => n === undefined)) {
+        const bad = parts.find((p) => parseDecimal(p) === undefined);
+        throw new Seg2Error(file, index, name, `"${value}" is not one to three numbers (x [y [z]])${bad === undefined ? '' : notANumberHint(bad)}; expected plain decimal numbers in ${units}`);
+      }
+      const metres = (numbers as number[]).map((n) => n * metresPerUnit!);
+      if (metres.some((m) => Math.abs(m) > MAX_COORDINATE_M)) {
+        throw new Seg2Error(file, index, name, `"${value}" is beyond ${MAX_COORDINATE_M} m; expected a position along the line (distance from its start)`);
+      }
+      return metres;
     };
-    const integer = (name: string) => numberKeyword(keywords, name);
+    const integer = (name: string) => integerKeyword(file, index, keywords, name);
+    const stackText = keywords.STACK === undefined ? undefined : keywords.STACK.split(/\s+/)[0];
+    const stack = stackText === undefined ? undefined : parseInteger(stackText);
+    if (stackText !== undefined && stack === undefined) remarks.push(`trace ${index}: STACK "${keywords.STACK}" is not a whole number; not kept`);
     return {
       index,
       keywords,
@@ -112,8 +131,8 @@ export function readSeg2(bytes: Uint8Array, file: string): Seg2Record {
       descalingFactor,
       data,
       sampleInterval,
-      delay: numberKeyword(keywords, 'DELAY') ?? 0,
-      stack: integer('STACK'),
+      delay,
+      stack,
       dead: (keywords.TRACE_TYPE ?? '').toUpperCase() === 'DEAD',
       sourceLocation: location('SOURCE_LOCATION'),
       receiverLocation: location('RECEIVER_LOCATION'),
@@ -122,7 +141,7 @@ export function readSeg2(bytes: Uint8Array, file: string): Seg2Record {
       channel: integer('CHANNEL_NUMBER'),
     };
   });
-  return { file, byteOrder: little ? 'little' : 'big', revision, keywords: fileStrings.keywords, notes: fileStrings.notes, units, metresPerUnit, traces, remarks };
+  return { file, byteOrder: little ? 'little' : 'big', revision, keywords: fileStrings.keywords, notes: fileStrings.notes, units, metresPerUnit: metresPerUnit ?? 1, traces, remarks };
 }
 
 function hex(byte: number | undefined): string {
@@ -136,12 +155,35 @@ function terminator(length: number, first: number, second: number): number[] | u
   return undefined;
 }
 
-function numberKeyword(keywords: Record<string, string>, name: string): number | undefined {
+/** Largest SAMPLE_INTERVAL, in seconds, of any seismic record (1 s is 1 Hz sampling). */
+const MAX_SAMPLE_INTERVAL_S = 1;
+/** Largest DELAY magnitude, in seconds, accepted in a record shorter than it (refraction records last under a second or two). */
+const MAX_DELAY_S = 1;
+/** Largest coordinate, in metres: 10 000 km, beyond any projected survey coordinate. */
+const MAX_COORDINATE_M = 1e7;
+
+/**
+ * A keyword holding a number, parsed strictly (first blank-separated token; plain decimals only,
+ * no hexadecimal, NaN or decimal comma): undefined when absent, an error naming file, trace and
+ * keyword when present and not a number, since such a value would change the numbers.
+ */
+function decimalKeyword(file: string, trace: number, keywords: Record<string, string>, name: string, expected: string): number | undefined {
   const value = keywords[name];
   if (value === undefined) return undefined;
-  const first = value.split(/\s+/).filter(Boolean)[0];
-  const number = Number(first);
-  return first !== undefined && Number.isFinite(number) ? number : undefined;
+  const first = value.split(/\s+/).filter(Boolean)[0] ?? '';
+  const number = parseDecimal(first);
+  if (number === undefined) throw new Seg2Error(file, trace, name, `"${value}" is not a number${notANumberHint(first)}; expected ${expected}`);
+  return number;
+}
+
+/** A keyword holding a whole number (channel and station numbers), parsed strictly. */
+function integerKeyword(file: string, trace: number, keywords: Record<string, string>, name: string): number | undefined {
+  const value = keywords[name];
+  if (value === undefined) return undefined;
+  const first = value.split(/\s+/).filter(Boolean)[0] ?? '';
+  const number = parseInteger(first);
+  if (number === undefined) throw new Seg2Error(file, trace, name, `"${value}" is not a whole number${notANumberHint(first)}; expected a whole number`);
+  return number;
 }
 
 /**
@@ -174,7 +216,7 @@ function readStrings(
     const keyword = match[1].toUpperCase();
     const value = match[2];
     if (keyword === 'NOTE') {
-      const lines = lineTerminator === undefined ? [value] : value.split(String.fromCharCode(...lineTerminator)).flatMap((l) => l.split('\n'));
+      const lines = lineTerminator === undefined ? [value] : value.split(lineTerminator.map((b) => String.fromCharCode(b)).join('')).flatMap((l) => l.split('\n'));
       for (const line of lines) if (line.trim() !== '') notes.push(line.trim());
       keywords.NOTE = notes.join('\n');
     } else {
