@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { layerThickness } from '../../src/depth/interceptTime.js';
 import { crossoverDistance } from '../../src/fit/fitBranches.js';
 import { csvFrom, interpretCsv, range } from '../helpers.js';
+import { firstArrivalTime, interfaceDepth, type PlaneModel } from '../reference/planeLayerRays.js';
 
 // Head-wave travel time over flat layers, written out by hand from Telford, Geldart & Sheriff
 // (1990) Applied Geophysics, 2nd ed., §4.2 (eqs. 4.24 to 4.30): t = x / Vn + Σ 2 hj cos θj,n / Vj
@@ -66,5 +67,20 @@ describe('interpret on exact textbook data', () => {
   it('crossoverDistance of t = x/500 and t = 0.02 + x/2000 is 13.33 m', () => {
     // x = 0.02 / (1/500 − 1/2000) = 0.02 / 0.0015 = 13.333 m, by hand.
     expect(crossoverDistance({ intercept: 0, slowness: 1 / 500 }, { intercept: 0.02, slowness: 1 / 2000 })).toBeCloseTo(13.333, 3);
+  });
+});
+
+describe('interceptTimeDepths over a dipping refractor', () => {
+  it('interceptTimeDepths gives the vertical depth z = h / cos δ under each source of a refractor dipping 20°, within 5 cm', () => {
+    // 800 over 2000 m/s, 3 m below x = 0, deepening 20° towards +x; exact head-wave times traced ray
+    // by ray (test/reference/planeLayerRays.ts). The intercept gives the perpendicular distance
+    // h = t V1 / (2 cos θ) (Telford et al. 1990, §4.3); the vertical depth is h / cos 20° = 1.064 h:
+    // under the source at x = 71.5 m, z = 3 + 71.5 tan 20° = 29.02 m while h = 27.27 m, by hand.
+    const model: PlaneModel = { depthAtZero: [3], dipDeg: [20], velocities: [800, 2000] };
+    const { result } = interpretCsv(csvFrom([-0.5, 35.5, 71.5], range(72, 1), (s, r) => firstArrivalTime(model, s, r)));
+    const points = result.refractors[0].byMethod['intercept-time'];
+    expect(points.map((p) => p.x)).toEqual([-0.5, 35.5, 71.5]);
+    for (const p of points) expect(Math.abs(p.depth - interfaceDepth(model, 0, p.x))).toBeLessThan(0.05);
+    expect(points[2].depth).toBeCloseTo(29.02, 1);
   });
 });

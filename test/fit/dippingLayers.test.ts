@@ -107,6 +107,31 @@ describe('solveInterfaces (Johnson 1976) on ray-traced head waves', () => {
     expect(verticalThickness(0.01, [], 500, [{ velocity: 400, dip: 0 }])).toBeUndefined();
     // A too-small intercept for the layer above gives a negative thickness: no answer.
     expect(verticalThickness(0.001, [5], 500, [{ velocity: 1500, dip: 0 }, { velocity: 3000, dip: 0 }])).toBeUndefined();
+    // A zero intercept is a layer of no thickness, not "no answer".
+    expect(verticalThickness(0, [], 500, [{ velocity: 1500, dip: 0 }])).toBe(0);
+  });
+
+  it('solveInterface returns undefined where a ray cannot be traced: a reverse apparent velocity below V1, a ray past the critical angle of a refractor above, or rays that would meet above the refractor', () => {
+    expect(solveInterface(500, [], 1 / 2000, 1 / 450)).toBeUndefined();
+    // Through a refractor above of 1500 m/s: sin φ₂ = 3 sin φ₁ exceeds 1 for an apparent velocity of 1400 m/s
+    // (sin φ₁ = 500/1400 = 0.357, by hand) on either side.
+    expect(solveInterface(500, [{ velocity: 1500, dip: 0 }], 1 / 1400, 1 / 3000)).toBeUndefined();
+    expect(solveInterface(500, [{ velocity: 1500, dip: 0 }], 1 / 3000, 1 / 1400)).toBeUndefined();
+    // Slownesses of opposite sign and equal size: the rays' mean angle is zero, no critical angle.
+    expect(solveInterface(500, [], 1 / 3000, -1 / 3000)).toBeUndefined();
+    // Through flat layers the slowness is conserved: V3 = 1/s whatever the layers above (Telford §4.2).
+    expect(solveInterface(500, [{ velocity: 1500, dip: 0 }], 1 / 3000, 1 / 3000)!.velocity).toBeCloseTo(3000, 6);
+  });
+
+  it('headWaveAngles returns undefined where the up-going ray meets a slower layer beyond its critical angle', () => {
+    // 500 m/s over 400 m/s over 1000 m/s dipping 40°: φ₂ = asin(0.4) + 40° = 63.6°, and
+    // (500/400) sin 63.6° = 1.12 > 1, so no ray reaches the ground (by hand).
+    expect(headWaveAngles(500, [{ velocity: 400, dip: 0 }, { velocity: 1000, dip: rad(40) }], 2)).toBeUndefined();
+    // Flat layers: every angle is asin(Vj / V3) on both sides (Telford et al. 1990, §4.2).
+    const flat = headWaveAngles(500, [{ velocity: 1500, dip: 0 }, { velocity: 3000, dip: 0 }], 2)!;
+    expect(flat.forward[0]).toBeCloseTo(Math.asin(500 / 3000), 12);
+    expect(flat.reverse[0]).toBeCloseTo(Math.asin(500 / 3000), 12);
+    expect(flat.forward[1]).toBeCloseTo(Math.asin(0.5), 12);
   });
 });
 
