@@ -67,11 +67,6 @@ export function eikonalTimes(grid: EikonalGrid, source: { x: number; elev: numbe
   const alphas = record ? new Float64Array(2 * n) : new Float64Array(0);
   const accepted = record ? new Int32Array(n) : new Int32Array(0);
   let acceptedCount = 0;
-  // Scratch for the two directions (x, z) of one update.
-  const near = new Int32Array(2);
-  const second = new Int32Array(2);
-  const tau = new Float64Array(2);
-  const alpha = new Float64Array(2);
 
   const fi = (source.x - grid.x0) / h;
   const fj = (grid.top - source.elev) / h;
@@ -95,142 +90,173 @@ export function eikonalTimes(grid: EikonalGrid, source: { x: number; elev: numbe
     }
   }
   if (seeded.length === 0) throw new RangeError(`eikonal: no live node within ${radius} nodes of the source at x = ${source.x} m`);
-  for (const k of seeded) {
-    if (record) accepted[acceptedCount++] = k;
-  }
-  for (const k of seeded) pushNeighbours(k);
-
+  if (record) for (const k of seeded) accepted[acceptedCount++] = k;
+  const ctx: MarchState = { nx, nz, order, slowness, active, times, state, heap, record, neighbours, alphas, accepted, acceptedCount, h };
+  for (const k of seeded) relaxNeighbours(ctx, k);
   while (heap.size > 0) {
     const k = heap.pop();
     state[k] = KNOWN;
-    if (record) accepted[acceptedCount++] = k;
-    pushNeighbours(k);
+    if (record) accepted[ctx.acceptedCount++] = k;
+    relaxNeighbours(ctx, k);
   }
-
-  function pushNeighbours(k: number): void {
-    const i = k % nx;
-    const j = (k - i) / nx;
-    if (i > 0) visit(k - 1);
-    if (i < nx - 1) visit(k + 1);
-    if (j > 0) visit(k - nx);
-    if (j < nz - 1) visit(k + nx);
-  }
-
-  function visit(k: number): void {
-    if (state[k] === KNOWN || active[k] === 0) return;
-    const t = update(k);
-    if (t < times[k]) {
-      times[k] = t;
-      if (state[k] === TRIAL) heap.decrease(k);
-      else {
-        state[k] = TRIAL;
-        heap.push(k);
-      }
-    }
-  }
-
-  function update(k: number): number {
-    const i = k % nx;
-    const j = (k - i) / nx;
-    const s = slowness[k];
-    let dims = 0;
-    // Along x, then along z: the accepted neighbour with the least time, and the one beyond it.
-    for (let d = 0; d < 2; d++) {
-      const stride = d === 0 ? 1 : nx;
-      const pos = d === 0 ? i : j;
-      const size = d === 0 ? nx : nz;
-      let best = -1;
-      let bestTime = Infinity;
-      let dir = 0;
-      if (pos > 0 && state[k - stride] === KNOWN && times[k - stride] < bestTime) {
-        best = k - stride;
-        bestTime = times[best];
-        dir = -1;
-      }
-      if (pos < size - 1 && state[k + stride] === KNOWN && times[k + stride] < bestTime) {
-        best = k + stride;
-        bestTime = times[best];
-        dir = 1;
-      }
-      near[d] = best;
-      second[d] = -1;
-      if (best < 0) {
-        alpha[d] = 0;
-        continue;
-      }
-      dims++;
-      const beyondPos = pos + 2 * dir;
-      const beyond = k + 2 * dir * stride;
-      if (order === 2 && beyondPos >= 0 && beyondPos < size && state[beyond] === KNOWN && times[beyond] <= bestTime) {
-        second[d] = beyond;
-        tau[d] = (4 * bestTime - times[beyond]) / 3;
-        alpha[d] = 9 / (4 * h * h);
-      } else {
-        tau[d] = bestTime;
-        alpha[d] = 1 / (h * h);
-      }
-    }
-    if (dims === 0) return Infinity;
-    let t = solve(s);
-    if (!Number.isFinite(t) && (second[0] >= 0 || second[1] >= 0)) {
-      for (let d = 0; d < 2; d++) {
-        if (second[d] < 0 || near[d] < 0) continue;
-        second[d] = -1;
-        tau[d] = times[near[d]];
-        alpha[d] = 1 / (h * h);
-      }
-      t = solve(s);
-    }
-    if (!Number.isFinite(t)) {
-      // One direction only: the one giving the least time.
-      let bestD = -1;
-      let bestT = Infinity;
-      for (let d = 0; d < 2; d++) {
-        if (near[d] < 0) continue;
-        const one = tau[d] + s / Math.sqrt(alpha[d]);
-        if (one < bestT) {
-          bestT = one;
-          bestD = d;
-        }
-      }
-      const other = 1 - bestD;
-      near[other] = -1;
-      second[other] = -1;
-      alpha[other] = 0;
-      t = bestT;
-    }
-    if (record && t < times[k]) {
-      neighbours[4 * k] = near[0];
-      neighbours[4 * k + 1] = second[0];
-      neighbours[4 * k + 2] = near[1];
-      neighbours[4 * k + 3] = second[1];
-      alphas[2 * k] = near[0] >= 0 ? alpha[0] : 0;
-      alphas[2 * k + 1] = near[1] >= 0 ? alpha[1] : 0;
-    }
-    return t;
-  }
-
-  /** The upwind root of Σ α_d (T − τ_d)² = s² over the directions in use, or Infinity. */
-  function solve(s: number): number {
-    let a = 0;
-    let b = 0;
-    let c = -s * s;
-    for (let d = 0; d < 2; d++) {
-      if (near[d] < 0) continue;
-      a += alpha[d];
-      b -= 2 * alpha[d] * tau[d];
-      c += alpha[d] * tau[d] * tau[d];
-    }
-    const disc = b * b - 4 * a * c;
-    if (disc < 0) return Infinity;
-    const t = (-b + Math.sqrt(disc)) / (2 * a);
-    for (let d = 0; d < 2; d++) if (near[d] >= 0 && t < tau[d]) return Infinity;
-    return t;
-  }
+  acceptedCount = ctx.acceptedCount;
 
   const result: EikonalResult = { times };
   if (record) result.stencil = { order: accepted, accepted: acceptedCount, neighbours, alphas, seeded: Int32Array.from(seeded), source: { ...source } };
   return result;
+}
+
+
+/** What the march shares between its steps (typed arrays, no object per node). */
+interface MarchState {
+  nx: number;
+  nz: number;
+  order: 1 | 2;
+  h: number;
+  slowness: Float64Array;
+  active: Uint8Array;
+  times: Float64Array;
+  state: Uint8Array;
+  heap: MinHeap;
+  record: boolean;
+  neighbours: Int32Array;
+  alphas: Float64Array;
+  accepted: Int32Array;
+  acceptedCount: number;
+}
+
+/** Updates the four neighbours of a newly accepted node. */
+function relaxNeighbours(c: MarchState, k: number): void {
+  const { nx, nz } = c;
+  const i = k % nx;
+  const j = (k - i) / nx;
+  if (i > 0) visit(c, k - 1, i - 1, j);
+  if (i < nx - 1) visit(c, k + 1, i + 1, j);
+  if (j > 0) visit(c, k - nx, i, j - 1);
+  if (j < nz - 1) visit(c, k + nx, i, j + 1);
+}
+
+/**
+ * The upwind update of node k at column i, row j from its accepted neighbours (in units of the
+ * node spacing: Σ α_d (T − τ_d)² = (s·h)², α = 1 for first-order and 9/4 for second-order
+ * differences, τ = T₁ or (4T₁ − T₂)/3), with the first-order and one-direction fallbacks.
+ */
+function visit(c: MarchState, k: number, i: number, j: number): void {
+  const { state, times, nx, nz } = c;
+  if (state[k] === KNOWN || c.active[k] === 0) return;
+  const sh = c.slowness[k] * c.h;
+  const second = c.order === 2;
+  // Along x.
+  let nearX = -1;
+  let tX = Infinity;
+  let dirX = 0;
+  if (i > 0 && state[k - 1] === KNOWN) {
+    nearX = k - 1;
+    tX = times[nearX];
+    dirX = -1;
+  }
+  if (i < nx - 1 && state[k + 1] === KNOWN && times[k + 1] < tX) {
+    nearX = k + 1;
+    tX = times[nearX];
+    dirX = 1;
+  }
+  let farX = -1;
+  let tauX = tX;
+  let aX = 1;
+  if (nearX >= 0 && second) {
+    const pos = i + 2 * dirX;
+    const beyond = k + 2 * dirX;
+    if (pos >= 0 && pos < nx && state[beyond] === KNOWN && times[beyond] <= tX) {
+      farX = beyond;
+      tauX = (4 * tX - times[beyond]) / 3;
+      aX = 2.25;
+    }
+  }
+  // Along z.
+  let nearZ = -1;
+  let tZ = Infinity;
+  let dirZ = 0;
+  if (j > 0 && state[k - nx] === KNOWN) {
+    nearZ = k - nx;
+    tZ = times[nearZ];
+    dirZ = -1;
+  }
+  if (j < nz - 1 && state[k + nx] === KNOWN && times[k + nx] < tZ) {
+    nearZ = k + nx;
+    tZ = times[nearZ];
+    dirZ = 1;
+  }
+  let farZ = -1;
+  let tauZ = tZ;
+  let aZ = 1;
+  if (nearZ >= 0 && second) {
+    const pos = j + 2 * dirZ;
+    const beyond = k + 2 * dirZ * nx;
+    if (pos >= 0 && pos < nz && state[beyond] === KNOWN && times[beyond] <= tZ) {
+      farZ = beyond;
+      tauZ = (4 * tZ - times[beyond]) / 3;
+      aZ = 2.25;
+    }
+  }
+  if (nearX < 0 && nearZ < 0) return;
+  let t = Infinity;
+  if (nearX >= 0 && nearZ >= 0) {
+    t = twoWay(aX, tauX, aZ, tauZ, sh);
+    if (t === Infinity && (farX >= 0 || farZ >= 0)) {
+      farX = -1;
+      farZ = -1;
+      aX = 1;
+      aZ = 1;
+      tauX = tX;
+      tauZ = tZ;
+      t = twoWay(1, tX, 1, tZ, sh);
+    }
+    if (t === Infinity) {
+      // One direction only: the one giving the least time.
+      const alongX = tauX + sh / Math.sqrt(aX);
+      const alongZ = tauZ + sh / Math.sqrt(aZ);
+      if (alongX <= alongZ) {
+        t = alongX;
+        nearZ = -1;
+        farZ = -1;
+      } else {
+        t = alongZ;
+        nearX = -1;
+        farX = -1;
+      }
+    }
+  } else if (nearX >= 0) {
+    t = tauX + sh / Math.sqrt(aX);
+  } else {
+    t = tauZ + sh / Math.sqrt(aZ);
+  }
+  if (!(t < times[k])) return;
+  times[k] = t;
+  if (c.record) {
+    const h2 = c.h * c.h;
+    c.neighbours[4 * k] = nearX;
+    c.neighbours[4 * k + 1] = nearX >= 0 ? farX : -1;
+    c.neighbours[4 * k + 2] = nearZ;
+    c.neighbours[4 * k + 3] = nearZ >= 0 ? farZ : -1;
+    c.alphas[2 * k] = nearX >= 0 ? aX / h2 : 0;
+    c.alphas[2 * k + 1] = nearZ >= 0 ? aZ / h2 : 0;
+  }
+  if (state[k] === TRIAL) c.heap.decrease(k);
+  else {
+    state[k] = TRIAL;
+    c.heap.push(k);
+  }
+}
+
+/** The upwind root of αx (T − τx)² + αz (T − τz)² = r², or Infinity when there is none. */
+function twoWay(ax: number, tx: number, az: number, tz: number, r: number): number {
+  const a = ax + az;
+  const b = ax * tx + az * tz;
+  const c = ax * tx * tx + az * tz * tz - r * r;
+  const disc = b * b - a * c;
+  if (disc < 0) return Infinity;
+  const t = (b + Math.sqrt(disc)) / a;
+  return t >= tx && t >= tz ? t : Infinity;
 }
 
 /** Pieces of the straight ray from the source to node k: sample points and their lengths. */
