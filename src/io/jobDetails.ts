@@ -153,7 +153,7 @@ export function readJobDetails(text: string, file: string): JobDetails {
     const name = line.slice(0, colon);
     const field = fieldByKey(name);
     if (field === undefined) throw unknownField(where, name.trim());
-    set(field, line.slice(colon + 1), where);
+    set(field, line.slice(colon + 1).trim(), where);
   });
   return job;
 }
