@@ -48,6 +48,10 @@ describe('hammerline report (HTML)', () => {
     expect(section(html, 'method')).toMatch(/Gardner, L\. W\. \(1939\)/);
     expect(section(html, 'method')).toMatch(/Soske, J\. L\. \(1959\)/);
     expect(section(html, 'method')).toMatch(/ASCE\/SEI 7-16/);
+    expect(section(html, 'method')).toMatch(/Schwarz, G\. \(1978\)/);
+    // Every step of the pipeline is a method the statement knows, with a reference.
+    expect(section(html, 'method')).not.toMatch(/as recorded in the processing history/);
+    expect(section(html, 'method')).not.toMatch(/<td>—<\/td><\/tr>/);
     expect(section(html, 'time-distance')).toMatch(/<svg class="figure-svg"/);
     expect(section(html, 'depth-section')).toMatch(/<path class="band"/);
     expect(section(html, 'depth-section')).toMatch(/<path class="recommended"/);

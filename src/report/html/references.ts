@@ -18,6 +18,25 @@ const DEPTH_METHODS: Record<string, MethodReference> = {
   'delay-time': { method: 'Delay-time method (least squares over all sources)', purpose: 'depth under each geophone from every head-wave pick', references: ['Gardner, L. W. (1939). An areal plan of mapping subsurface structure by refraction shooting. Geophysics 4, 247–259.'] },
 };
 
+/** A step's name compared without case or separators: "segmented_regression" is "segmentedRegression". */
+function stepIs(step: HistoryStep, name: string): boolean {
+  return step.step.replace(/[_\s-]/g, '').toLowerCase() === name.toLowerCase();
+}
+
+/** A step's parameter by its snake_case name, or by the camelCase spelling of it. */
+export function parameter(step: HistoryStep | undefined, snake: string): unknown {
+  if (step === undefined) return undefined;
+  const camel = snake.replace(/_([a-z])/g, (_, c: string) => c.toUpperCase());
+  return step.parameters[snake] ?? step.parameters[camel];
+}
+
+/** The step of the history with the given name (see stepIs). */
+export function findStep(history: HistoryStep[], name: string): HistoryStep | undefined {
+  return history.find((s) => stepIs(s, name));
+}
+
+const JOHNSON = 'Johnson, S. H. (1976). Interpretation of split-spread refraction data in terms of plane dipping layers. Geophysics 41, 418–424.';
+
 /**
  * The methods the processing history shows were used, each with its published reference, in the
  * order they were applied. Steps the program does not know by name are listed with no reference
@@ -31,19 +50,20 @@ export function methodReferences(history: HistoryStep[], options: { picked: bool
     if (options.bandPass) out.push({ method: 'Butterworth band-pass filter (zero phase)', purpose: 'noise suppression before picking', references: ['Butterworth, S. (1930). On the theory of filter amplifiers. Wireless Engineer 7, 536–541.'] });
   }
   for (const step of history) {
-    const p = step.parameters;
-    if (step.step === 'split_branches') continue;
-    if (step.step === 'segmented_regression') {
+    if (stepIs(step, 'splitBranches')) continue;
+    if (stepIs(step, 'segmentedRegression')) {
       out.push({ method: 'Segmented least-squares regression of time against offset', purpose: 'apparent velocities, intercept times and crossover distances of each branch; the number of segments by the Bayesian information criterion; outliers by the modified z-score', references: ['Schwarz, G. (1978). Estimating the dimension of a model. Annals of Statistics 6, 461–464.', 'Iglewicz, B. & Hoaglin, D. C. (1993). How to Detect and Handle Outliers. ASQC Quality Press, Milwaukee.'] });
-      if (p.statics === true) out.push({ method: 'Refraction statics (receiver delay times)', purpose: 'segmentation of branches straightened for near-surface delays', references: [DEPTH_METHODS['delay-time'].references[0]] });
-    } else if (step.step === 'layers') {
-      out.push({ method: 'True velocity and dip from reversed apparent velocities', purpose: 'layer velocities and refractor dips', references: [TELFORD] });
-    } else if (step.step === 'depths') {
-      const methods = (Array.isArray(p.methods) ? (p.methods as string[]) : []).filter((m) => options.depthMethodsWithDepths?.has(m) ?? true);
+      if (parameter(step, 'statics') === true) out.push({ method: 'Refraction statics (receiver delay times)', purpose: 'segmentation of branches straightened for near-surface delays', references: [DEPTH_METHODS['delay-time'].references[0]] });
+    } else if (stepIs(step, 'layers')) {
+      const johnson = /johnson/i.test(String(parameter(step, 'true_velocity') ?? ''));
+      out.push({ method: johnson ? 'True velocities and dips of plane dipping layers, not necessarily parallel' : 'True velocity and dip from reversed apparent velocities', purpose: 'layer velocities and refractor dips from the forward and reverse apparent velocities', references: johnson ? [JOHNSON, TELFORD] : [TELFORD] });
+    } else if (stepIs(step, 'depths')) {
+      const listed = parameter(step, 'methods');
+      const methods = (Array.isArray(listed) ? (listed as string[]) : []).filter((m) => options.depthMethodsWithDepths?.has(m) ?? true);
       for (const m of methods) out.push(DEPTH_METHODS[m] ?? { method: m, purpose: 'depth to the refractors', references: [] });
       out.push({ method: 'Reciprocal-time check', purpose: 'consistency of the picks of reversed sources', references: [REDPATH] });
       out.push({ method: 'Hidden-layer (blind-zone) limit', purpose: 'the thickest layer that could lie unseen above each refractor', references: ['Soske, J. L. (1959). The blind zone problem in engineering geophysics. Geophysics 24, 359–365.'] });
-    } else if (step.step === 'site') {
+    } else if (stepIs(step, 'site')) {
       out.push({ method: 'Time-averaged shear-wave velocity and site classes', purpose: 'Vs30 and the site class of each standard', references: ['ASCE/SEI 7-16, Minimum Design Loads and Associated Criteria for Buildings and Other Structures, chapter 20 (Eq. 20.4-1, Table 20.3-1).', 'ASCE/SEI 7-22, Minimum Design Loads and Associated Criteria for Buildings and Other Structures, chapter 20 (Table 20.2-1).', 'EN 1998-1:2004, Eurocode 8: Design of structures for earthquake resistance, Part 1, Section 3.1.2 (Eq. 3.1, Table 3.1).'] });
       if (options.extrapolated) out.push({ method: 'Extension of the deepest velocity to 30 m', purpose: 'Vs30 where the profile is shallower than 30 m', references: ['Boore, D. M. (2004). Estimating Vs(30) (or NEHRP site classes) from shallow velocity models (depths < 30 m). Bulletin of the Seismological Society of America 94, 591–597.'] });
       if (options.estimatedFromVp) out.push({ method: "Shear-wave velocity from P-wave velocity and Poisson's ratio", purpose: 'ESTIMATED shear-wave velocities (not measured)', references: [TELFORD] });

@@ -32,6 +32,7 @@ table.kv th { font-weight: normal; width: 70%; border-bottom: 0.4pt solid var(--
 table.depths td, table.depths th { padding: 0.55mm 1.4mm; font-size: 8.3pt; }
 td.n, th.n { text-align: right; white-space: nowrap; }
 td.rec { font-weight: 600; }
+td.tight { white-space: nowrap; }
 td.cls { font-weight: 700; }
 table.methods td { font-size: 8.6pt; border-bottom: 0.4pt solid var(--rule); }
 table.methods th { border-top: 1pt solid var(--ink); border-bottom: 0.75pt solid var(--ink); background: var(--faint); font-size: 8.5pt; }

@@ -1,5 +1,6 @@
 import { escapeHtml } from '../escape.js';
 import type { Figures } from '../figures.js';
+import { findStep, parameter } from '../references.js';
 import type { ReportInput } from '../types.js';
 
 /** Labels of quality-check figures of the `qc` block, in milliseconds unless the key says otherwise. */
@@ -40,14 +41,14 @@ ${pickingText}<p>${edits}</p></section>`;
 }
 
 function editedChoices(input: ReportInput): string {
-  const step = input.result.history.find((s) => s.step === 'segmented_regression');
-  const segments = (step?.parameters.fixed_segments ?? {}) as Record<string, number>;
-  const breakpoints = (step?.parameters.fixed_breakpoints_m ?? {}) as Record<string, number[]>;
+  const step = findStep(input.result.history, 'segmentedRegression');
+  const segments = (parameter(step, 'fixed_segments') ?? {}) as Record<string, number>;
+  const breakpoints = (parameter(step, 'fixed_breakpoints_m') ?? {}) as Record<string, number[]>;
   const parts = [
     ...Object.entries(segments).map(([branch, n]) => `${branch === '*' ? 'every branch' : escapeHtml(branch)}: ${n} segment${n === 1 ? '' : 's'}`),
     ...Object.entries(breakpoints).map(([branch, xs]) => `${escapeHtml(branch)}: breakpoints at offsets ${xs.map((x) => x.toFixed(2)).join(', ')} m`),
   ];
-  if (step?.parameters.direct_through_origin === true) parts.push('direct wave forced through the origin');
+  if (parameter(step, 'direct_through_origin') === true) parts.push('direct wave forced through the origin');
   return parts.length === 0 ? 'No pick was edited and no segment choice was fixed by hand: the segments are those chosen by the criterion.' : `Choices fixed by the interpreter: ${parts.join('; ')}.`;
 }
 

@@ -70,9 +70,12 @@ export function summarySection(input: ReportInput, fig: Figures): string {
 
 /** Three sentences: what refraction cannot see here, how sure the site class is, what must confirm the result. */
 function mainLimitations(input: ReportInput, warnings: DocWarning[], estimated: boolean): string[] {
-  const hidden = warnings.filter((w) => w.code === 'hidden-layer-limit'); // raised only where the fit left out a segment
-  const first = hidden.length > 0
-    ? `A hidden layer or a velocity inversion would not be seen: here a layer thin enough to stay hidden could make the deepest refractor deeper than shown (see section 9).`
+  const warned = warnings.some((w) => w.code === 'hidden-layer-limit'); // raised only where the fit left out a segment
+  const deepest = [...input.result.refractors].reverse().find((r) => r.hiddenLayer !== undefined);
+  const first = warned
+    ? `A hidden layer or a velocity inversion would not be seen, and here the fit shows signs of a layer it did not keep: a hidden layer could make the refractors deeper than shown (section 9).`
+    : deepest !== undefined
+      ? `A hidden layer or a velocity inversion would not be seen: a layer thin enough to stay hidden could make refractor ${deepest.index} up to ${deepest.hiddenLayer!.depthUnderestimate.toFixed(1)} m deeper than shown (section 6).`
     : 'A hidden layer or a velocity inversion would not be seen, and would make the depths too shallow or too deep.';
   const second = input.result.site === undefined
     ? 'No site class is given; one needs shear-wave velocities, measured on an S-wave line or in a borehole.'

@@ -1,6 +1,7 @@
 import { hiddenLayerText } from '../../../core/cautions.js';
 import { escapeHtml } from '../escape.js';
 import type { Figures } from '../figures.js';
+import { findStep, parameter } from '../references.js';
 import { depthSectionSvg, METHOD_DASH, REFRACTOR_COLOURS } from '../svg/depthSection.js';
 import { timeDistanceSvg } from '../svg/timeDistance.js';
 import type { ReportInput } from '../types.js';
@@ -84,12 +85,12 @@ export function siteSection(input: ReportInput, fig: Figures): string {
     return `<section id="site"><h2><span class="no">7</span> Vs30 and site class</h2><p>Not assessed. ${input.result.wave === 'P' ? 'A P-wave line does not give shear-wave velocities. A site class needs an S-wave (SH) line over the same ground, a downhole or crosshole test, or, as an estimate only, an assumed Poisson’s ratio for each layer.' : 'No station along the line has a depth to every refractor, so no profile could be averaged.'}</p></section>`;
   }
   const basis = site.estimatedFromVp
-    ? `<p class="estimated"><strong>ESTIMATED, not measured.</strong> The shear-wave velocities were derived from the P-wave velocities with an assumed Poisson’s ratio (${(fig.get('history') as { step: string; parameters: { poisson?: number[] } }[]).find((s) => s.step === 'site')?.parameters.poisson?.join(', ') ?? 'as given'}, layers top down). A site class from Vp is an estimate: it is not a measured site class, and the standards’ rules for estimated velocities apply.</p>`
+    ? `<p class="estimated"><strong>ESTIMATED, not measured.</strong> The shear-wave velocities were derived from the P-wave velocities with an assumed Poisson’s ratio (${(parameter(findStep(input.result.history, 'site'), 'poisson') as number[] | null | undefined)?.join(', ') ?? 'as given'}, layers top down). A site class from Vp is an estimate: it is not a measured site class, and the standards’ rules for estimated velocities apply.</p>`
     : site.estimated ? '<p class="estimated"><strong>ESTIMATED.</strong> The velocities were entered as estimates.</p>' : '<p>Shear-wave velocities measured on this S-wave line (first breaks of horizontally polarised shear waves).</p>';
   const rows = site.classes.map((c, i) => {
     const p = `site.classes.${i}`;
     const notes = [c.borderline ? `borderline: ${escapeHtml(c.neighbour ?? 'another class')} possible` : '', c.basis === 'profile shape' ? `by profile shape (by velocity alone: ${escapeHtml(c.velocityClass ?? '')})` : '', c.estimatedRange ? `v̄s/1.3, v̄s, 1.3 v̄s give ${escapeHtml(c.estimatedRange.low.class)}, ${escapeHtml(c.estimatedRange.central.class)}, ${escapeHtml(c.estimatedRange.high.class)}; the most critical governs` : ''].filter(Boolean).join('; ');
-    return `<tr><td>${escapeHtml(c.standard)}</td><td>${escapeHtml(c.table)}</td><td class="n">${fig.num(`${p}.average_velocity_mps`, 0)}</td><td class="n">${fig.num(`${p}.averaging_depth_m`, 2)}</td><td class="cls">${escapeHtml(c.class)}${site.estimated ? ' (estimated)' : ''}</td><td class="n">${fig.num(`${p}.probability`, 2)}</td><td>${notes || '—'}</td></tr>`;
+    return `<tr><td class="tight">${escapeHtml(c.standard)}</td><td class="tight">${escapeHtml(c.table)}</td><td class="n">${fig.num(`${p}.average_velocity_mps`, 0)}</td><td class="n">${fig.num(`${p}.averaging_depth_m`, 2)}</td><td class="cls">${escapeHtml(c.class)}${site.estimated ? ' (estimated)' : ''}</td><td class="n">${fig.num(`${p}.probability`, 2)}</td><td>${notes || '—'}</td></tr>`;
   }).join('');
   const notes = site.classes.flatMap((c) => c.notes.map((n) => `<li>${escapeHtml(c.standard)}: ${escapeHtml(n)}</li>`)).join('');
   return `<section id="site"><h2><span class="no">7</span> Vs30 and site class${site.estimated ? ' (estimated)' : ''}</h2>${basis}
