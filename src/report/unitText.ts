@@ -2,7 +2,7 @@ import { renderParts, type Quantity, type SiText } from '../core/siText.js';
 import { METRES_PER_FOOT, type LengthUnit } from '../core/units.js';
 
 const NUMBER = String.raw`-?\d+(?:\.\d+)?`;
-const JOINER = String.raw`(?:, | and | to |-)`;
+const JOINER = String.raw`(?:, | and | or | to |-)`;
 // A number, or a list or range of numbers ("12, 14", "12 and 14", "1450-1650", "1, 2, 3, ..."),
 // then a length or velocity unit. The look-behind keeps "S2" and "3.5" from matching midway.
 const WITH_UNIT = new RegExp(String.raw`(?<![\w.])(${NUMBER}(?:${JOINER}${NUMBER})*(?:, \.\.\.)?) ?(m\/s|m)(?![\w/])`, 'g');
@@ -25,7 +25,8 @@ export function feetInText(text: string): string {
 
 /** A warning's or caution's sentence in the display unit. */
 export function displayText(item: { message: string; parts?: (string | Quantity)[] } | SiText, unit: LengthUnit): string {
-  if (item.parts) return renderParts(item.parts, unit);
+  // Plain text inside an si`` sentence may still carry SI figures (a standard's wording): converted too.
+  if (item.parts) return renderParts(unit === 'ft' ? item.parts.map((p) => (typeof p === 'string' ? feetInText(p) : p)) : item.parts, unit);
   const text = 'message' in item ? item.message : item.text;
   return unit === 'ft' ? feetInText(text) : text;
 }

@@ -329,7 +329,7 @@ export function siteCautions(input: SiteInput, extrapolated: number, deepest: nu
     });
   }
   if (extrapolated > 0) {
-    const spread = monteCarlo ? si` In the probabilities that velocity's standard error is widened by ${EXTRAPOLATION_SPREAD_PER_M * 100} % of it per metre extrapolated.` : si``;
+    const spread = monteCarlo ? si` In the probabilities that velocity's standard error is widened by ${EXTRAPOLATION_SPREAD_PER_M * 100} % of it for every ${len(1)} extrapolated.` : si``;
     const what = input.profileBase === undefined ? 'refractor' : 'boundary given';
     const text = si`Below ${len(deepest)} (the deepest ${what}) the deepest velocity is assumed to continue to ${len(30, 0)}: ${len(extrapolated)} of the top ${len(30, 0)} are extrapolated (Boore 2004).`;
     cautions.push(caution('vs30-extrapolated', { text: text.text + spread.text, parts: [...text.parts, ...spread.parts] }));
