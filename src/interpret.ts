@@ -1,4 +1,4 @@
-import { checkHiddenLayers, checkLayerCautions, depthCautions, type Caution } from './core/cautions.js';
+import { checkHiddenLayers, checkLayerCautions, checkShearTopLayer, depthCautions, type Caution } from './core/cautions.js';
 import { len, si, type SiText } from './core/siText.js';
 import { median } from './core/stats.js';
 import type { BranchFit, FirstBreakTable, Interpretation, Layer, Wave } from './core/types.js';
@@ -27,6 +27,8 @@ export interface InterpretOptions extends BranchChoices {
   vsFromVp?: VsFromVpOptions;
   /** Monte Carlo settings of the site assessment. */
   site?: SiteOptions;
+  /** The shot-record files the picks come from, when they were picked from records. */
+  records?: string[];
 }
 
 export interface InterpretationResult extends Interpretation {
@@ -40,6 +42,8 @@ export interface InterpretationResult extends Interpretation {
   site?: SiteAssessment;
   /** A P line given a Poisson's ratio whose Vs could not be had for every layer: the Vs profile and why no class. */
   siteNotClassified?: { vsLayers: VsLayer[]; reason: SiText };
+  /** The shot-record files the picks come from (options.records). */
+  records?: string[];
 }
 
 /**
@@ -69,6 +73,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   const layers: Layer[] = layerVelocities(fits, layerCount, log);
   history.push({ step: 'layers', parameters: { layers: layers.length, receiver_spacing_m: Number(spacing.toFixed(3)), true_velocity: 'Johnson 1976 plane dipping layers (up/down-dip)' } });
   checkLayerCautions(layers, wave, log);
+  checkShearTopLayer(layers, wave, log);
 
   const usable = usableLayers(layers);
   const intercept = interceptTimeDepths(fits, usable, log);
@@ -121,6 +126,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     picksTotal: table.picks.length,
     site,
     ...(siteNotClassified ? { siteNotClassified } : {}),
+    ...(options.records ? { records: options.records } : {}),
   };
 }
 

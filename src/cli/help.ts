@@ -28,7 +28,8 @@ Options for interpret:
                            velocities, cautions and warnings as # lines above the header
   --units m|ft             unit of lengths in the input and of the summary (default m; velocities
                            then in ft/s)
-  --wave P|S               wave type of the picks, when the table has no wave column (default P)
+  --wave P|S               wave type of the picks, when the table has no wave column (default P);
+                           with SEG-2 records, also the wave to pick (see --wave below)
   --segments N | BRANCH=N  fix the number of segments (1 to 4) for every branch or for one branch;
                            a branch is SOURCE:forward (+x side) or SOURCE:reverse (-x side)
   --breakpoint BRANCH=OFFSET[,OFFSET...]
@@ -61,6 +62,12 @@ to interpret are the shots of one line: they are picked, then interpreted togeth
   --stations FILE.csv      station table (x, elev, optional station): ground elevations, and
                            positions of records that give only station numbers
   --bandpass LOW,HIGH      4th-order Butterworth band-pass before picking, zero phase, in Hz
+  --wave P|S               P (default): pick the first break. S: SH records (beam source,
+                           horizontal geophones): pick the shear onset after the weaker P arrival;
+                           records sharing a source position and receivers are combined (those of
+                           opposite S polarity subtracted, which cancels the P), and warned about
+                           when they do not reverse the S or do not cancel the P
+  --no-pairs               with --wave S, pick every record on its own
   pick writes the first-break table (with confidence, source_file and trace columns); traces
   left unpicked (dead, no clear onset, inconsistent with their neighbours) are listed on stderr.
 

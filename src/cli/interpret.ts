@@ -14,6 +14,8 @@ import { keyValue, lengthUnitOption, listOption, numberOption, parse, readInput,
 import { HELP } from './help.js';
 import { checkOutputPaths, type CliIo } from './io.js';
 import { GEOMETRY_OPTIONS, isSeg2, pickAll, traceLabeller } from './records.js';
+import type { RecordGroup } from '../picking/pickRecords.js';
+import { round } from '../io/numbers.js';
 import { toMetres } from '../core/units.js';
 
 /** Options of interpret that choose how a line is interpreted; report accepts the same. */
@@ -106,11 +108,12 @@ export function interpretChoices(values: Record<string, unknown>, io: CliIo): In
  * read or picked is reported on stderr, left out (a `record-skipped` warning) and listed in
  * `skipped`; the caller exits non-zero.
  */
-export function interpretRecords(records: string[], values: Record<string, unknown>, choices: InterpretChoices, io: CliIo): { result: InterpretationResult; table: FirstBreakTable; rows: PickRow[]; skipped: { file: string; message: string }[] } {
-  const { rows, skipped } = pickAll(records, values, choices.unit, io, choices.wave ?? 'P');
+export function interpretRecords(records: string[], values: Record<string, unknown>, choices: InterpretChoices, io: CliIo): { result: InterpretationResult; table: FirstBreakTable; rows: PickRow[]; groups: RecordGroup[]; skipped: { file: string; message: string }[] } {
+  const { rows, skipped, groups, notes } = pickAll(records, values, choices.unit, io, choices.wave ?? 'P');
   const name = records.length === 1 ? records[0] : `${records[0]} and ${records.length - 1} more record${records.length > 2 ? 's' : ''}`;
   const log = new WarningLog();
   for (const s of skipped) log.add('record-skipped', `${s.message}; the record was left out of the interpretation`);
+  for (const note of notes ?? []) log.add(note.code, note.message);
   for (const sentence of unpickedSummary(rows)) log.add('unpicked-traces', sentence);
   // The picks reach the interpretation as a table; its rows are traces of records to the user.
   const relabel = traceLabeller(rows);
@@ -118,13 +121,13 @@ export function interpretRecords(records: string[], values: Record<string, unkno
   let result: InterpretationResult;
   try {
     table = readFirstBreaks(pickTableCsv(rows, 'm', false), name, log, { wave: choices.wave, acceptVelocities: choices.acceptVelocities });
-    result = interpret(table, choices.options, log);
+    result = interpret(table, { ...choices.options, records: records.filter((r) => !skipped.some((s) => s.file === r)) }, log);
   } catch (error) {
     if (error instanceof InputError) throw new InputError({}, relabel(error.message));
     throw error;
   }
   for (const w of result.warnings) w.message = relabel(w.message);
-  return { result, table, rows, skipped };
+  return { result, table, rows, groups: groups ?? [], skipped };
 }
 
 /** One first-break table, read and interpreted (an S line checked against the P line when one is given). */
@@ -166,9 +169,17 @@ export function interpretCommand(args: string[], io: CliIo): number {
     if (records.length !== positionals.length) {
       throw new InputError({ file: positionals.find((f) => !records.includes(f)) }, 'is a first-break table given with SEG-2 records; interpret either tables (one line each) or the records of one line, not both');
     }
-    const { result, table, rows, skipped } = interpretRecords(records, values, choices, io);
+    const { result, table, rows, skipped, groups } = interpretRecords(records, values, choices, io);
     if (values.depths) io.writeText(values.depths as string, depthsCsv(result, receiverGround(table), unit));
-    const output = values.json ? JSON.stringify(interpretationJson(result, { picking: { records, picked: rows.filter((r) => r.time !== undefined).length, traces: rows.length } }), null, 2) + '\n' : summary(result, unit);
+    const document = interpretationJson(result, {
+      picking: {
+        records, wave: result.wave, picked: rows.filter((r) => r.time !== undefined).length, traces: rows.length,
+        ...(result.wave === 'S' ? { polarity_pairs: groups.map((g) => ({ records: g.files, reversed: g.reversed, source_x_m: g.sourceX, combined: g.check.combined === 'pair' ? 'difference' : 'stack', difference_to_sum_energy: round(g.check.differenceToSum, 3), p_residual: round(g.check.pResidual, 3) })) } : {}),
+      },
+    });
+    // The records a site class rests on.
+    if (document.site !== undefined) (document.site as Record<string, unknown>).records = result.records ?? records;
+    const output = values.json ? JSON.stringify(document, null, 2) + '\n' : summary(result, unit);
     if (values.output) io.writeText(values.output as string, output);
     else io.stdout(output);
     return skipped.length > 0 ? 2 : 0;

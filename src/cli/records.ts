@@ -6,9 +6,10 @@ import { pickTableCsv, unpickedSummary } from '../io/pickTable.js';
 import { readSeg2 } from '../io/seg2/read.js';
 import type { Seg2Record } from '../io/seg2/types.js';
 import { readStations } from '../io/stationsCsv.js';
-import { pickSeg2, type PickRow, type RecordPickOptions } from '../picking/recordPicks.js';
+import { pickSeg2, type PickRow } from '../picking/recordPicks.js';
+import { pickRecords, type RecordGroup, type RecordsPickOptions } from '../picking/pickRecords.js';
 import { HELP } from './help.js';
-import { lengthUnitOption, listOption, numberOption, parse, readInput } from './args.js';
+import { lengthUnitOption, listOption, numberOption, parse, readInput, waveOption } from './args.js';
 import { checkOutputPaths, type CliIo } from './io.js';
 
 /** Options that place and pick shot records, shared by pick and interpret. */
@@ -18,6 +19,7 @@ export const GEOMETRY_OPTIONS = {
   spacing: { type: 'string' },
   stations: { type: 'string' },
   bandpass: { type: 'string' },
+  'no-pairs': { type: 'boolean' },
 } as const;
 
 /** True when the file starts with the SEG-2 file block ID in either byte order. */
@@ -31,9 +33,12 @@ export function isSeg2(io: CliIo, file: string): boolean {
   return bytes.length >= 2 && ((bytes[0] === 0x55 && bytes[1] === 0x3a) || (bytes[0] === 0x3a && bytes[1] === 0x55));
 }
 
-function recordOptions(values: Record<string, unknown>, unit: LengthUnit, io: CliIo): RecordPickOptions {
+function recordOptions(values: Record<string, unknown>, unit: LengthUnit, io: CliIo): RecordsPickOptions {
   const length = (name: string) => (values[name] === undefined ? undefined : toMetres(numberOption(name, values[name] as string, `a position in ${unit === 'ft' ? 'feet' : 'metres'}`), unit));
-  const options: RecordPickOptions = { sourceX: length('source-x'), firstReceiverX: length('first-receiver'), spacing: length('spacing') };
+  const options: RecordsPickOptions = { sourceX: length('source-x'), firstReceiverX: length('first-receiver'), spacing: length('spacing') };
+  const wave = waveOption(values.wave as string | undefined);
+  if (wave !== undefined) options.wave = wave;
+  if (values['no-pairs']) options.pairs = false;
   if ((options.firstReceiverX === undefined) !== (options.spacing === undefined)) throw new InputError({}, 'give --first-receiver and --spacing together');
   if (values.stations !== undefined) options.stations = readStations(readInput(io, values.stations as string), values.stations as string, unit);
   if (values.bandpass !== undefined) {
@@ -53,6 +58,10 @@ function readRecord(io: CliIo, file: string): Seg2Record {
 export interface PickedRecords {
   rows: PickRow[];
   skipped: { file: string; message: string }[];
+  /** S records combined by shot position (polarity pairs, stacks). */
+  groups?: RecordGroup[];
+  /** Warnings about the combined records (code and sentence). */
+  notes?: { code: string; message: string }[];
 }
 
 /**
@@ -61,6 +70,7 @@ export interface PickedRecords {
  */
 export function pickAll(files: string[], values: Record<string, unknown>, unit: LengthUnit, io: CliIo, wave: Wave | 'any' = 'any'): PickedRecords {
   const options = recordOptions(values, unit, io);
+  if (options.wave === 'S') return pickShearAll(files, values, options, io);
   const rows: PickRow[] = [];
   const skipped: PickedRecords['skipped'] = [];
   files.forEach((file, i) => {
@@ -84,6 +94,41 @@ export function pickAll(files: string[], values: Record<string, unknown>, unit: 
   });
   if (skipped.length === files.length) throw new InputError({}, `none of the ${files.length} records could be picked (see the messages above)`);
   return { rows, skipped };
+}
+
+/**
+ * The S records of one line (--wave S): every record read first (one that cannot be read is
+ * reported and skipped, as in pickAll), then picked together so that the records of one shot
+ * position can be combined (`pickRecords`: polarity pairs, unless --no-pairs); the apparent
+ * velocities are judged per record (or per combined group, by its first record) as S velocities.
+ */
+function pickShearAll(files: string[], values: Record<string, unknown>, options: RecordsPickOptions, io: CliIo): PickedRecords {
+  const skipped: PickedRecords['skipped'] = [];
+  const records: Seg2Record[] = [];
+  files.forEach((file, i) => {
+    if (files.length > 1 && !values.quiet) io.stderr(`[${i + 1}/${files.length}] reading ${file}\n`);
+    try {
+      records.push(readRecord(io, file));
+    } catch (error) {
+      if (!(error instanceof InputError) || files.length === 1) throw error;
+      io.stderr(`hammerline: ${error.message}\nhammerline: ${file}: skipped\n`);
+      skipped.push({ file, message: error.message });
+    }
+  });
+  if (records.length === 0) throw new InputError({}, `none of the ${files.length} records could be read (see the messages above)`);
+  if (files.length > 1 && !values.quiet) io.stderr(`picking ${records.length} record${records.length > 1 ? 's' : ''} for the S onsets\n`);
+  let picked: ReturnType<typeof pickRecords>;
+  try {
+    picked = pickRecords(records, options);
+  } catch (error) {
+    if (error instanceof RangeError) throw new InputError({ file: records.map((r) => r.file).join(', ') }, error.message);
+    throw error;
+  }
+  for (const record of records) {
+    const own = picked.rows.filter((row) => row.file === record.file || row.file.startsWith(`${record.file} `));
+    if (own.length > 0) checkRecordVelocities(record, own, 'S', Boolean(values['accept-velocities']), io);
+  }
+  return { rows: picked.rows, skipped, groups: picked.groups, notes: picked.notes };
 }
 
 /**
@@ -124,12 +169,13 @@ export function traceLabeller(rows: PickRow[]): (text: string) => string {
 }
 
 export function pickCommand(args: string[], io: CliIo): number {
-  const { values, positionals } = parse(args, { ...GEOMETRY_OPTIONS, output: { type: 'string', short: 'o' }, units: { type: 'string' }, quiet: { type: 'boolean', short: 'q' }, 'accept-velocities': { type: 'boolean' }, help: { type: 'boolean', short: 'h' } });
+  const { values, positionals } = parse(args, { ...GEOMETRY_OPTIONS, wave: { type: 'string' }, output: { type: 'string', short: 'o' }, units: { type: 'string' }, quiet: { type: 'boolean', short: 'q' }, 'accept-velocities': { type: 'boolean' }, help: { type: 'boolean', short: 'h' } });
   if (values.help) { io.stdout(HELP); return 0; }
   if (positionals.length === 0) throw new InputError({}, 'pick needs at least one SEG-2 record (SHOT.seg2)');
   checkOutputPaths([...positionals, ...(typeof values.stations === 'string' ? [values.stations] : [])], [{ option: '-o', path: values.output as string | undefined }]);
   const unit = lengthUnitOption(values.units as string | undefined);
-  const { rows, skipped } = pickAll(positionals, values, unit, io);
+  const { rows, skipped, notes } = pickAll(positionals, values, unit, io);
+  for (const note of notes ?? []) io.stderr(`hammerline: ${note.message}\n`);
   for (const sentence of unpickedSummary(rows)) io.stderr(`hammerline: ${sentence}\n`);
   const csv = pickTableCsv(rows, unit);
   if (values.output) io.writeText(values.output as string, csv);

@@ -105,3 +105,21 @@ export function checkHiddenLayers(refractors: HiddenLayerInput[], warnings: Warn
     warnings.add('hidden-layer-limit', { text: `${text.text}; the fit left out a segment (${unkept.map((w) => w.code).join(', ')}), so such a layer is more than a possibility here: check the segments, or a boring`, parts: [...text.parts, `; the fit left out a segment (${unkept.map((w) => w.code).join(', ')}), so such a layer is more than a possibility here: check the segments, or a boring`] }, { layer: r.index + 1 });
   }
 }
+
+/**
+ * Fastest top-layer shear-wave velocity taken as soil: 762 m/s (2,500 ft/s), the bound between
+ * site classes C (very dense soil and soft rock) and B (rock) of ASCE 7-16 Table 20.3-1. A direct
+ * S wave faster than that at the surface of a soil site is most often the P arrival picked on
+ * horizontal geophones (dry soil has a Vp of roughly 200 to 800 m/s: from memory, the usual ranges
+ * of refraction texts).
+ */
+export const SHEAR_TOP_LAYER_MAX = 762;
+
+/** On an S-wave line: a warning when the top layer (the direct wave) is too fast for a shear wave in soil. */
+export function checkShearTopLayer(layers: Layer[], wave: Wave, warnings: WarningLog): void {
+  const top = layers.find((l) => l.index === 1);
+  if (wave !== 'S' || top === undefined || !(top.velocity > SHEAR_TOP_LAYER_MAX)) return;
+  warnings.add('shear-top-layer-fast',
+    si`layer 1 of this S-wave line has Vs ${vel(top.velocity)}, above ${vel(SHEAR_TOP_LAYER_MAX)}, the lower bound of site class B (rock) in ASCE 7-16 Table 20.3-1. Unless rock is exposed at the surface, a direct shear wave this fast is unlikely in soil and the picks are probably on the P arrival, which comes first and weaker on horizontal geophones: check the picks against the records, or against a P-wave line over the same ground`,
+    { layer: 1 });
+}

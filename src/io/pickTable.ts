@@ -5,14 +5,17 @@ import type { PickRow } from '../picking/recordPicks.js';
 /**
  * The first-break table (CSV, the DESIGN.md contract) of automatic picks, with the confidence,
  * the source file and the trace number of each pick. Unpicked traces are not rows (the caller
- * reports them). Elevation columns are written when every row has them. Text cells are made safe for
+ * reports them). Elevation columns are written when every row has them, the wave column when the
+ * rows say which wave was picked. Text cells are made safe for
  * spreadsheets (csvText) unless `neutralise` is false, which only the in-memory hand-over from
  * picking to interpretation uses, so that ids stay as the records name them.
  */
 export function pickTableCsv(rows: PickRow[], unit: LengthUnit = 'm', neutralise = true): string {
   const picked = rows.filter((r) => r.time !== undefined);
   const withElevations = picked.length > 0 && picked.every((r) => r.sourceElev !== undefined && r.receiverElev !== undefined);
-  const header = ['source_id', 'source_x', ...(withElevations ? ['source_elev'] : []), 'receiver_x', ...(withElevations ? ['receiver_elev'] : []), 'time_ms', 'confidence', 'source_file', 'trace'];
+  // The wave column (P or S) when the picking was told which wave it picked (--wave).
+  const withWave = picked.some((r) => r.wave !== undefined);
+  const header = ['source_id', 'source_x', ...(withElevations ? ['source_elev'] : []), 'receiver_x', ...(withElevations ? ['receiver_elev'] : []), 'time_ms', 'confidence', 'source_file', 'trace', ...(withWave ? ['wave'] : [])];
   const lines = picked.map((r) => [
     csvText(r.sourceId, neutralise),
     decimal(fromMetres(r.sourceX, unit), 4),
@@ -23,6 +26,7 @@ export function pickTableCsv(rows: PickRow[], unit: LengthUnit = 'm', neutralise
     decimal(r.confidence, 3),
     csvText(r.file, neutralise),
     String(r.trace),
+    ...(withWave ? [r.wave ?? 'P'] : []),
   ].join(','));
   return [header.join(','), ...lines].join('\n') + '\n';
 }

@@ -14,7 +14,7 @@ export interface PickTrace {
   dead?: boolean;
 }
 
-export type PickStatus = 'picked' | 'repicked' | 'dead' | 'no clear onset' | 'inconsistent';
+export type PickStatus = 'picked' | 'repicked' | 'dead' | 'no clear onset' | 'inconsistent' | 'on the P arrival';
 
 export interface TracePick {
   /** First-break time after the shot, in seconds; undefined when not picked. */
@@ -51,6 +51,23 @@ export interface PickOptions {
  */
 export function pickRecord(traces: PickTrace[], options: PickOptions = {}): TracePick[] {
   const picks = traces.map((t) => pickTrace(t, options));
+  return checkRecord(traces, picks, (i, predicted, halfWidth) => pickNear(traces[i], predicted, halfWidth, options));
+}
+
+/**
+ * A second look at one trace near a predicted time: trace index, predicted onset (s after the
+ * shot) and half-width of the window (s); undefined when nothing is found there.
+ */
+export type Repick = (trace: number, predicted: number, halfWidth: number) => TracePick | undefined;
+
+/**
+ * The record-consistency step of `pickRecord` on picks made by any per-trace picker (first breaks,
+ * or S onsets): spikes against neighbour lines, the segmented regression per side, near-source
+ * picks by the concave shape of a first-arrival curve (`nearSourceArrivals`), a re-pick near the
+ * curve for the rest (`repick`), else `inconsistent`. Returns a new array.
+ */
+export function checkRecord(traces: PickTrace[], initial: TracePick[], repick: Repick): TracePick[] {
+  const picks = [...initial];
   for (const side of [-1, 1]) {
     const members = traces.map((t, i) => ({ t, i })).filter(({ t, i }) => Math.sign(t.offset) === side && picks[i].time !== undefined)
       .sort((a, b) => Math.abs(a.t.offset) - Math.abs(b.t.offset));
@@ -63,7 +80,7 @@ export function pickRecord(traces: PickTrace[], options: PickOptions = {}): Trac
     if (clean.length < 6) continue;
     const x = clean.map(({ t }) => Math.abs(t.offset));
     const y = clean.map(({ i }) => picks[i].time!);
-    const fit = segmentedRegression(x, y, { forbidSlopeIncrease: true, maxSegments: 3, continuous: false });
+    const fit = travelTimeFit(x, y);
     if (fit === undefined) continue;
     // First arrivals follow the lower envelope of the segment lines (each line wins beyond its crossover).
     const predict = (offset: number) => Math.min(...fit.segments.map((segment) => segment.intercept + segment.slope * offset));
@@ -78,7 +95,7 @@ export function pickRecord(traces: PickTrace[], options: PickOptions = {}): Trac
       if (nearSource.has(i)) continue;
       const t = traces[i];
       const predicted = predict(Math.abs(t.offset));
-      const again = pickNear(t, predicted, Math.max(3 * tolerance, 4e-3), options);
+      const again = repick(i, predicted, Math.max(3 * tolerance, 4e-3));
       if (again !== undefined && Math.abs(again.time! - predicted) <= tolerance && (again.snr ?? 0) >= 1.5) {
         picks[i] = { ...again, status: 'repicked', confidence: again.confidence / 2 };
       } else if (picks[i].time !== undefined) {
@@ -87,6 +104,22 @@ export function pickRecord(traces: PickTrace[], options: PickOptions = {}): Trac
     }
   }
   return picks;
+}
+
+/**
+ * The segmented regression of one side's picks against offset, as a first-arrival curve: slopes
+ * decreasing with offset (faster layers deeper) and every slope positive (a first arrival comes
+ * later at a farther geophone). A fit with a slope at or below zero has bent through early
+ * spikes; it is tried again with one segment fewer, down to a single line.
+ *
+ * @param x - absolute offsets in metres, increasing; y - times in seconds
+ */
+export function travelTimeFit(x: number[], y: number[]): ReturnType<typeof segmentedRegression> {
+  for (let segments = 3; segments >= 1; segments--) {
+    const fit = segmentedRegression(x, y, { forbidSlopeIncrease: true, maxSegments: segments, continuous: false });
+    if (fit === undefined || fit.segments.every((segment) => segment.slope > 0)) return fit;
+  }
+  return undefined;
 }
 
 /**
@@ -137,7 +170,7 @@ export function nearSourceArrivals(members: { i: number; x: number; time: number
  * A spike departs by more than six robust deviations (1.4826 × the median departure) and more than
  * max(5 samples, 2 ms). Removed worst first and the rest judged again, up to a fifth of the picks.
  */
-function localSpikes(x: number[], y: number[], dt: number): number[] {
+export function localSpikes(x: number[], y: number[], dt: number): number[] {
   const out: number[] = [];
   const excluded = new Set<number>();
   // The line through up to three neighbours on one side, by Theil-Sen (the median of the pairwise
@@ -171,7 +204,7 @@ function localSpikes(x: number[], y: number[], dt: number): number[] {
   return out;
 }
 
-function windows(t: PickTrace, options: PickOptions) {
+export function windows(t: PickTrace, options: PickOptions) {
   const dt = t.sampleInterval;
   // At least 8 samples in the STA: the mean of fewer squared noise samples exceeds four times the
   // noise level too often (a chi-square with 4 degrees of freedom passes 16 three times in a thousand).
@@ -181,7 +214,7 @@ function windows(t: PickTrace, options: PickOptions) {
   return { short, long, aic };
 }
 
-function isDead(t: PickTrace): boolean {
+export function isDead(t: PickTrace): boolean {
   if (t.dead) return true;
   const first = t.data[0];
   for (let k = 1; k < t.data.length; k++) if (t.data[k] !== first) return false;
@@ -255,13 +288,16 @@ export function refineOnset(data: Float32Array, onset: number, short: number, ea
   return Math.max(earliest, best);
 }
 
-/** AIC in a window around a predicted time, for a second look. */
-function pickNear(t: PickTrace, predicted: number, halfWidth: number, options: PickOptions): TracePick | undefined {
+/**
+ * AIC in a window around a predicted time, for a second look; the window starts no earlier than
+ * `earliest` (seconds after the shot) when given.
+ */
+export function pickNear(t: PickTrace, predicted: number, halfWidth: number, options: PickOptions, earliest = -Infinity): TracePick | undefined {
   if (isDead(t)) return undefined;
   const { short } = windows(t, options);
   const centre = Math.round((predicted - t.delay) / t.sampleInterval);
   const half = Math.round(halfWidth / t.sampleInterval);
-  const start = Math.max(0, centre - half);
+  const start = Math.max(0, centre - half, Number.isFinite(earliest) ? Math.ceil((earliest - t.delay) / t.sampleInterval) : 0);
   const end = Math.min(t.data.length, centre + half);
   const found = aicOnset(t.data, start, end);
   if (found === undefined) return undefined;
@@ -269,7 +305,7 @@ function pickNear(t: PickTrace, predicted: number, halfWidth: number, options: P
   return described(t, refineOnset(t.data, found.onset, short, Math.max(start, shot)), short, 'picked');
 }
 
-function described(t: PickTrace, fractionalOnset: number, short: number, status: PickStatus): TracePick {
+export function described(t: PickTrace, fractionalOnset: number, short: number, status: PickStatus): TracePick {
   const n = t.data.length;
   const onset = Math.min(n - 1, Math.max(0, Math.round(fractionalOnset)));
   const meanSquare = (from: number, to: number) => {

@@ -1,8 +1,10 @@
 import { InputError } from '../core/errors.js';
 import { linearAt } from '../core/interpolate.js';
+import type { Wave } from '../core/types.js';
 import type { Seg2Record } from '../io/seg2/types.js';
 import { bandPass } from './filter.js';
-import { pickRecord, type PickOptions, type PickStatus } from './autoPick.js';
+import { pickRecord, type PickOptions, type PickStatus, type PickTrace, type TracePick } from './autoPick.js';
+import { pickShearRecord } from './pickShearRecord.js';
 
 /** A station table: positions along the line and ground elevations, in metres, by station number. */
 export interface Stations {
@@ -21,6 +23,8 @@ export interface GeometryOptions {
 export interface RecordPickOptions extends GeometryOptions, PickOptions {
   /** Band-pass corners in Hz before picking (0 = none). */
   bandPass?: [number, number];
+  /** Wave to pick: P (the first break; default) or S (the shear onset after the P, `pickShearRecord`). */
+  wave?: Wave;
 }
 
 /** One pick row of the first-break table made from a record. */
@@ -36,6 +40,8 @@ export interface PickRow {
   status: PickStatus;
   file: string;
   trace: number;
+  /** Wave picked, when the picking was told (--wave). */
+  wave?: Wave;
 }
 
 /**
@@ -69,6 +75,40 @@ function stationX(stations: Stations | undefined, number: number | undefined): n
  * @throws InputError naming the file, trace and field when a position is missing and not given
  */
 export function pickSeg2(record: Seg2Record, options: RecordPickOptions = {}): PickRow[] {
+  const placed = placeRecord(record, options);
+  const picks = options.wave === 'S' ? pickShearRecord(placed.traces, options).picks : pickRecord(placed.traces, options);
+  return placedRows(placed, picks, options.wave);
+}
+
+/** A record placed on the line: its traces ready to pick, with their positions. */
+export interface PlacedRecord {
+  record: Seg2Record;
+  sourceId: string;
+  geometry: { sourceX: number; receiverX: number; sourceElev?: number; receiverElev?: number }[];
+  traces: PickTrace[];
+}
+
+/** Pick rows of a placed record from one pick per trace. */
+export function placedRows(placed: PlacedRecord, picks: TracePick[], wave?: Wave, sourceId = placed.sourceId, file = placed.record.file): PickRow[] {
+  return placed.record.traces.map((t, i) => ({
+    sourceId,
+    ...placed.geometry[i],
+    time: picks[i].time,
+    confidence: picks[i].confidence,
+    status: picks[i].status,
+    file,
+    trace: t.index,
+    ...(wave ? { wave } : {}),
+  }));
+}
+
+/**
+ * Places a record on the line (positions as for `pickSeg2`) and prepares its traces for picking
+ * (band-passed when asked), without picking them.
+ *
+ * @throws InputError naming the file, trace and field when a position is missing and not given
+ */
+export function placeRecord(record: Seg2Record, options: RecordPickOptions = {}): PlacedRecord {
   const sourceId = fileStem(record.file);
   const geometry = record.traces.map((t) => {
     const sourceX = options.sourceX ?? t.sourceLocation?.[0] ?? stationX(options.stations, t.sourceStation);
@@ -86,20 +126,12 @@ export function pickSeg2(record: Seg2Record, options: RecordPickOptions = {}): P
     const elevation = (location: number[] | undefined, x: number) => location?.[2] ?? (options.stations ? stationElevation(options.stations, x) : undefined);
     return { sourceX, receiverX, sourceElev: elevation(options.sourceX === undefined ? t.sourceLocation : undefined, sourceX), receiverElev: elevation(fromLayout === undefined ? t.receiverLocation : undefined, receiverX) };
   });
-  const picks = pickRecord(record.traces.map((t, i) => ({
+  const traces = record.traces.map((t, i) => ({
     data: options.bandPass ? bandPass(t.data, t.sampleInterval, options.bandPass[0], options.bandPass[1]) : t.data,
     sampleInterval: t.sampleInterval,
     delay: t.delay,
     offset: geometry[i].receiverX - geometry[i].sourceX,
     dead: t.dead,
-  })), options);
-  return record.traces.map((t, i) => ({
-    sourceId,
-    ...geometry[i],
-    time: picks[i].time,
-    confidence: picks[i].confidence,
-    status: picks[i].status,
-    file: record.file,
-    trace: t.index,
   }));
+  return { record, sourceId, geometry, traces };
 }

@@ -25,6 +25,7 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
   out.push(`hammerline ${VERSION}: ${result.file}`);
   const outliers = result.fits.reduce((n, f) => n + f.outlierRows.length, 0);
   out.push(`${result.wave}-wave line, ${count(result.fits.length, 'branch', 'branches')} from ${count(new Set(result.fits.map((f) => f.branch.sourceId)).size, 'source')}, ${result.picksUsed} of ${count(result.picksTotal, 'pick')} used (${count(outliers, 'outlier')} left out), line-fit RMS ${(result.fitRmsSeconds * 1e3).toFixed(2)} ms`);
+  if (result.records?.length) out.push(`Picks: ${result.wave === 'S' ? 'S-wave onsets (the shear arrival after the P)' : 'first breaks'} picked automatically from ${result.records.length} shot record${result.records.length > 1 ? 's' : ''}`);
   out.push('');
   out.push(`Layers (velocity ± standard error; true velocity and dip from forward and reverse branches)`);
   out.push(...table(
@@ -81,6 +82,7 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
   else if (result.siteNotClassified) {
     out.push('Site class: not estimated', `  ${displayText(result.siteNotClassified.reason, unit)}.`, ...vsProfileTable(result.siteNotClassified.vsLayers, unit), '');
   } else if (result.wave === 'P') out.push('Site class: not computed. Vs cannot be had from Vp alone: give --poisson or --vp-vs to estimate it, or interpret an S-wave line.', '');
+  if (result.site && result.records?.length) out.splice(out.length - 1, 0, `  The site class rests on the ${result.wave === 'S' ? 'shear-wave' : 'P-wave'} records ${result.records.join(', ')}.`);
   // A warning that qualifies a refractor is printed once, under it; the rest here.
   const shown = new Set(result.refractors.map((r) => r.index + 1));
   const general = result.warnings.filter((w) => (w.layer === undefined || !shown.has(w.layer)) && !(result.siteNotClassified && w.code === 'vs-from-vp-saturated'));

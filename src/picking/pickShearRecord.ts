@@ -1,0 +1,84 @@
+import { checkRecord, localSpikes, pickNear, pickRecord, pickTrace, travelTimeFit, type PickOptions, type PickTrace, type TracePick } from './autoPick.js';
+import { precedesShear, SHEAR_AFTER_P, shearOnset } from './shearOnset.js';
+
+/**
+ * The P arrival expected at each trace from the P first breaks of the record: per side, the
+ * first breaks confirmed as the weaker P ahead of an S (spikes removed as in the record check)
+ * fitted by the segmented regression against offset (`travelTimeFit`) and read on the lower
+ * envelope of its lines, so that traces whose P is lost in the noise still get a P time. Beyond
+ * the farthest confirmed first break the P may be faster (a deeper refractor) than the fit knows,
+ * so the time the S search starts from there is the smaller of the extended fit and the trace's
+ * own first break. Sides with fewer than six confirmed first breaks keep each trace's own.
+ *
+ * @param confirmed - first breaks taken as P (others with no time); raw - every first break
+ * @returns per trace, in seconds after the shot: `curve`, the P time expected (for the check that
+ *   an S pick is not on the P), and `search`, the P time the S search starts after; undefined
+ *   where there is none (and at zero offset, where P and S leave together)
+ */
+export function pMoveout(traces: PickTrace[], confirmed: TracePick[], raw: TracePick[] = confirmed): { curve: (number | undefined)[]; search: (number | undefined)[] } {
+  const timeOf = (p: TracePick, i: number) => (traces[i].offset !== 0 && (p.status === 'picked' || p.status === 'repicked') ? p.time : undefined);
+  const curve: (number | undefined)[] = confirmed.map(timeOf);
+  const search = [...curve];
+  for (const side of [-1, 1]) {
+    const members = traces.map((t, i) => ({ x: Math.abs(t.offset), i })).filter(({ i }) => Math.sign(traces[i].offset) === side && curve[i] !== undefined)
+      .sort((a, b) => a.x - b.x);
+    if (members.length < 6) continue;
+    // Early spikes (noise taken for a weak P) first, as in the record check of the first breaks.
+    const spikes = new Set(localSpikes(members.map((m) => m.x), members.map((m) => curve[m.i]!), traces[members[0].i].sampleInterval));
+    const clean = members.filter((_, k) => !spikes.has(k));
+    if (clean.length < 6) continue;
+    const fit = travelTimeFit(clean.map((m) => m.x), clean.map((m) => curve[m.i]!));
+    if (fit === undefined) continue;
+    const reach = clean[clean.length - 1].x;
+    traces.forEach((t, i) => {
+      if (Math.sign(t.offset) !== side) return;
+      const x = Math.abs(t.offset);
+      curve[i] = Math.max(0, Math.min(...fit.segments.map((segment) => segment.intercept + segment.slope * x)));
+      const own = timeOf(raw[i], i);
+      search[i] = x <= reach || own === undefined ? curve[i] : Math.min(curve[i]!, own);
+    });
+  }
+  return { curve, search };
+}
+
+export interface ShearPickResult {
+  /** The S picks, one per trace. */
+  picks: TracePick[];
+  /** The P time expected at each trace, in seconds after the shot (undefined: none). */
+  pTimes: (number | undefined)[];
+}
+
+/**
+ * Picks the S-wave onset on every trace of an SH record (horizontal geophones, beam source):
+ * the P first breaks are picked first (`pickRecord`; kept as P where `precedesShear` confirms a
+ * stronger arrival after them; or given: for a polarity pair, from the sum of the two records,
+ * where the S cancels), their moveout fitted across the record (`pMoveout`), each trace's S onset
+ * searched after its P (`shearOnset`), and the S picks then checked across the record like first
+ * breaks (`checkRecord`: the S moveout by segmented regression, re-picks near it by AIC never
+ * earlier than SHEAR_AFTER_P × the P time). A pick within max(3 samples, 1 ms) of the P moveout
+ * is on the P arrival, not the S: it is tried again near the S moveout, and left unpicked with
+ * that status if it is still there.
+ *
+ * @param pFirstBreaks - P picks per trace to use instead of picking the record's first breaks
+ */
+export function pickShearRecord(traces: PickTrace[], options: PickOptions = {}, pFirstBreaks?: TracePick[]): ShearPickResult {
+  const raw = pFirstBreaks ?? pickRecord(traces, options);
+  // First breaks of this record count as P only where a stronger arrival follows them.
+  const confirmed = pFirstBreaks ?? raw.map((p, i) => (p.time !== undefined && !precedesShear(traces[i], p.time, options) ? { ...p, time: undefined, status: 'no clear onset' as const } : p));
+  const { curve, search } = pMoveout(traces, confirmed, raw);
+  const onP = (pick: TracePick, i: number) => pick.time !== undefined && curve[i] !== undefined && Math.abs(pick.time - curve[i]!) <= Math.max(3 * traces[i].sampleInterval, 1e-3);
+  const initial = traces.map((t, i) => {
+    // At zero offset the P and the S leave together: the first energy is the onset.
+    if (t.offset === 0) return pickTrace(t, options);
+    const pick = shearOnset(t, search[i], options);
+    return onP(pick, i) ? { confidence: 0, status: 'no clear onset' as const, snr: pick.snr } : pick;
+  });
+  const picks = checkRecord(traces, initial, (i, predicted, halfWidth) => {
+    const p = search[i];
+    return pickNear(traces[i], predicted, halfWidth, options, p === undefined ? -Infinity : SHEAR_AFTER_P * p);
+  });
+  picks.forEach((pick, i) => {
+    if (onP(pick, i)) picks[i] = { confidence: 0, status: 'on the P arrival', snr: pick.snr };
+  });
+  return { picks, pTimes: curve };
+}
