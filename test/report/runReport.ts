@@ -1,4 +1,5 @@
 import { readFileSync } from 'node:fs';
+import { expect } from 'vitest';
 import type { CliIo } from '../../src/cli/io.js';
 import { reportCommand } from '../../src/cli/report.js';
 import { InputError } from '../../src/core/errors.js';
@@ -50,4 +51,48 @@ export function section(html: string, id: string): string {
   const start = html.indexOf(`<section id="${id}">`);
   if (start < 0) return '';
   return html.slice(start, html.indexOf('</section>', start));
+}
+
+function at(document: unknown, path: string): unknown {
+  return path.split('.').reduce<unknown>((node, key) => (node === null || typeof node !== 'object' ? undefined : (node as Record<string, unknown>)[key]), document);
+}
+
+/**
+ * Compares every number the report marks with the JSON document of interpret() (made by the
+ * caller, independently of the report command) and the geophones of the table: the value, and
+ * the text shown at the decimals shown. Returns how many were compared.
+ */
+export function compareWithDocument(html: string, document: Record<string, unknown>, receivers: { x: number; elev: number }[]): number {
+  let compared = 0;
+  for (const n of markedNumbers(html)) {
+    let expected: unknown;
+    if (n.thickness !== undefined) {
+      // Thickness of layer k: depth to refractor k minus depth to refractor k-1 where both have a point.
+      const depth = (k: number) => new Map((at(document, `refractors.${k - 1}.points`) as { x_m: number; depth_m: number }[]).map((p) => [p.x_m, p.depth_m]));
+      const base = depth(n.thickness);
+      const top = n.thickness > 1 ? depth(n.thickness - 1) : undefined;
+      const values = [...base.entries()].filter(([x]) => !top || top.has(x)).map(([x, d]) => d - (top?.get(x) ?? 0));
+      expected = n.agg === 'min' ? Math.min(...values) : Math.max(...values);
+    } else if (n.path!.startsWith('layout.receivers.')) {
+      const [, , i, field] = n.path!.split('.');
+      expected = field === 'station' ? Number(i) + 1 : field === 'x_m' ? receivers[Number(i)].x : receivers[Number(i)].elev;
+    } else if (n.path!.startsWith('layout.') || n.path!.startsWith('picking.')) {
+      continue;
+    } else if (n.agg) {
+      const [arrayPath, field] = n.path!.split('.*.');
+      const values = (at(document, arrayPath) as Record<string, number>[]).map((o) => o[field]);
+      expected = n.agg === 'min' ? Math.min(...values) : Math.max(...values);
+    } else {
+      expected = at(document, n.path!);
+    }
+    if (expected === null || expected === undefined) {
+      expect(n.value, n.path).toBeNull();
+      continue;
+    }
+    expect(n.value, n.path ?? `thickness ${n.thickness}`).toBeCloseTo(expected as number, 9);
+    // The text shown is the value at the decimals shown (half a unit in the last place).
+    expect(Math.abs(Number(n.text) - (expected as number)), `${n.path} shown as ${n.text}`).toBeLessThanOrEqual(0.5 * 10 ** -(n.digits ?? 0) + 1e-9);
+    compared++;
+  }
+  return compared;
 }
