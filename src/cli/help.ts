@@ -84,6 +84,8 @@ interpret applies (--wave S, --poisson, --p-line, --stations, --segments ...).
   --geojson FILE.geojson   the line and a point per geophone with its depths (RFC 7946, WGS 84);
                            needs --line-start and --line-end
   --json FILE.json         the JSON interpretation, with the layout and job details the report shows
+  --tomography             also run the traveltime tomography (default settings, as hammerline
+                           tomography) and show it beside the layered section, with its cautions
   Job details, shown at the top (missing ones are listed in the report and on stderr):
   --job FILE               a sidecar file: JSON, or lines of "key: value" with the keys client,
                            project, site, line, date, operator, equipment, source_type,

@@ -7,6 +7,9 @@ import { greatCircleDistance, lineGeoJson } from '../io/geojson.js';
 import { interpretationJson } from '../io/interpretationJson.js';
 import { JOB_OPTIONS, jobFromOptions, missingJobDetails, readJobDetails, type JobDetails } from '../io/jobDetails.js';
 import { round } from '../io/numbers.js';
+import { tomogramJson } from '../io/tomogramJson.js';
+import { tomography } from '../tomography/tomography.js';
+import { WarningLog } from '../core/warnings.js';
 import { readStations } from '../io/stationsCsv.js';
 import { receiverGround, receiverSpacing, VERSION, type InterpretationResult } from '../interpret.js';
 import type { PickRow } from '../picking/recordPicks.js';
@@ -29,6 +32,7 @@ const REPORT_OPTIONS = {
   job: { type: 'string' },
   paper: { type: 'string' },
   issued: { type: 'string' },
+  tomography: { type: 'boolean' },
   ...JOB_OPTIONS,
 } as const;
 
@@ -122,6 +126,7 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
     job: jobJson(job),
     ...(rows ? { picking: { records, picked: rows.filter((r) => r.time !== undefined).length, traces: rows.length, status_counts: statusCounts } } : {}),
   };
+  if (values.tomography) extra.tomogram = tomogramOf(table, result);
   const document = interpretationJson(result, extra);
 
   const roles: [string | undefined, string][] = [
@@ -169,4 +174,20 @@ function jobJson(job: JobDetails): Record<string, unknown> {
     line_end: job.lineEnd ? [job.lineEnd.lon, job.lineEnd.lat] : null,
     elevation_datum: job.elevationDatum ?? null,
   };
+}
+
+/**
+ * The tomogram of the line (hammerline/tomogram@1), with default settings and contours at the
+ * geometric mean of each pair of consecutive layer velocities, where a refractor would show.
+ */
+function tomogramOf(table: FirstBreakTable, result: InterpretationResult): Record<string, unknown> {
+  const log = new WarningLog();
+  const layers = result.layers.slice(0, result.refractors.length + 1);
+  const contours = layers.slice(1).map((l, i) => Math.round(Math.sqrt(l.velocity * layers[i].velocity)));
+  try {
+    return tomogramJson(tomography(table, { contours }, log, result), log.items);
+  } catch (error) {
+    if (error instanceof RangeError) throw new InputError({ file: table.file }, `--tomography: ${error.message}`);
+    throw error;
+  }
 }

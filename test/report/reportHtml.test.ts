@@ -115,3 +115,20 @@ describe('hammerline report (HTML)', () => {
     expect(r).not.toMatch(/<img/);
   });
 });
+
+describe('hammerline report from SEG-2 records', () => {
+  it('report of the seven pump-station records names the picking methods and counts every trace, the dead one too', () => {
+    const records = [1, 2, 3, 4, 5, 6, 7].map((i) => `survey-examples/pump-station/records/S${i}.seg2`);
+    const run = runReport(['report', ...records, '-o', 'r.html', '-q']);
+    expect(run.code, run.error?.message).toBe(0);
+    const html = run.written['r.html'];
+    expect(section(html, 'method')).toMatch(/Allen, R\. V\. \(1978\)/);
+    expect(section(html, 'method')).toMatch(/Maeda, N\. \(1985\)/);
+    // survey-examples/README.md: 7 records of 48 traces, one dead trace (S3, channel 17).
+    const counts = Object.fromEntries(markedNumbers(section(html, 'qc')).filter((n) => n.path?.startsWith('picking.status_counts.')).map((n) => [n.path!.split('.').pop()!, n.value!]));
+    expect(Object.values(counts).reduce((a, b) => a + b, 0)).toBe(7 * 48);
+    expect(counts.dead).toBe(1);
+    // Every record is checksummed in the processing history.
+    expect((section(html, 'history').match(/<td>SEG-2 shot record<\/td>/g) ?? []).length).toBe(7);
+  });
+});

@@ -80,7 +80,8 @@ export function compareWithDocument(html: string, document: Record<string, unkno
       continue;
     } else if (n.agg) {
       const [arrayPath, field] = n.path!.split('.*.');
-      const values = (at(document, arrayPath) as Record<string, number>[]).map((o) => o[field]);
+      // Over the points that have a value (null where, for example, a contour is not found).
+      const values = (at(document, arrayPath) as Record<string, number | null>[]).map((o) => o[field]).filter((v): v is number => typeof v === 'number');
       expected = n.agg === 'min' ? Math.min(...values) : Math.max(...values);
     } else {
       expected = at(document, n.path!);

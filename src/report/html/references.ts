@@ -42,7 +42,7 @@ const JOHNSON = 'Johnson, S. H. (1976). Interpretation of split-spread refractio
  * order they were applied. Steps the program does not know by name are listed with no reference
  * (the history table gives their parameters).
  */
-export function methodReferences(history: HistoryStep[], options: { picked: boolean; bandPass: boolean; extrapolated: boolean; estimatedFromVp: boolean; depthMethodsWithDepths?: Set<string> }): MethodReference[] {
+export function methodReferences(history: HistoryStep[], options: { picked: boolean; bandPass: boolean; extrapolated: boolean; estimatedFromVp: boolean; tomogram?: boolean; depthMethodsWithDepths?: Set<string> }): MethodReference[] {
   const out: MethodReference[] = [];
   if (options.picked) {
     out.push({ method: 'STA/LTA trigger', purpose: 'automatic detection of the first break on each trace', references: ['Allen, R. V. (1978). Automatic earthquake recognition and timing from single traces. Bulletin of the Seismological Society of America 68, 1521–1532.'] });
@@ -76,6 +76,14 @@ export function methodReferences(history: HistoryStep[], options: { picked: bool
     } else {
       out.push({ method: step.step, purpose: 'as recorded in the processing history', references: [] });
     }
+  }
+  if (options.tomogram) {
+    out.push({ method: 'First-arrival traveltime tomography (a second opinion beside the layered section)', purpose: 'velocity grid from the same first breaks: fast-marching first-arrival times, adjoint-state gradient, smoothing-regularised least squares by L-BFGS', references: [
+      'Sethian, J. A. (1996). A fast marching level set method for monotonically advancing fronts. Proceedings of the National Academy of Sciences 93, 1591–1595.',
+      'Leung, S. & Qian, J. (2006). An adjoint state method for three-dimensional transmission traveltime tomography using first-arrivals. Communications in Mathematical Sciences 4, 249–266.',
+      'Zelt, C. A. & Barton, P. J. (1998). Three-dimensional seismic refraction tomography: a comparison of two methods applied to data from the Faeroe Basin. Journal of Geophysical Research 103, 7187–7210.',
+      'Nocedal, J. (1980). Updating quasi-Newton matrices with limited storage. Mathematics of Computation 35, 773–782.',
+    ] });
   }
   return out;
 }

@@ -75,6 +75,8 @@ svg .intercept { fill: #fff; stroke-width: 1; }
 svg .ground { fill: none; stroke: #111; stroke-width: 1.5; }
 svg .geophones line { stroke: #111; stroke-width: 0.8; }
 svg .sources path { fill: #111; }
+svg .contour { fill: none; stroke: #111; stroke-width: 1.4; }
+svg .layered { fill: none; stroke: #111; stroke-width: 1; stroke-dasharray: 4 2; }
 svg .layer-label { font-size: 9.5px; fill: var(--ink); paint-order: stroke; stroke: #fff; stroke-width: 3px; stroke-linejoin: round; }
 .signatures { display: flex; gap: 8mm; }
 .signature { flex: 1; border: 0.75pt solid var(--ink); padding: 1mm 3mm 2mm; }

@@ -56,7 +56,9 @@ function editedChoices(input: ReportInput): string {
 export function warningSection(fig: Figures): string {
   const warnings = (fig.get('warnings') as { code: string; message: string }[]) ?? [];
   const items = warnings.map((w, i) => `<li data-warning="${i}"><span class="code">${escapeHtml(w.code)}</span> ${escapeHtml(w.message)}</li>`).join('');
-  return `<section id="warnings"><h2><span class="no">9</span> Warnings</h2>${warnings.length === 0 ? '<p>The interpretation raised no warning.</p>' : `<p>${warnings.length} warning${warnings.length === 1 ? '' : 's'} raised by the interpretation:</p><ol class="warnings">${items}</ol>`}</section>`;
+  const tomogram = (fig.get('tomogram.warnings') as { code: string; message: string }[] | undefined);
+  const tomogramItems = tomogram === undefined ? '' : tomogram.length === 0 ? '<p>The tomogram raised no warning.</p>' : `<p>Raised by the tomogram:</p><ol class="warnings">${tomogram.map((w) => `<li><span class="code">${escapeHtml(w.code)}</span> ${escapeHtml(w.message)}</li>`).join('')}</ol>`;
+  return `<section id="warnings"><h2><span class="no">9</span> Warnings</h2>${warnings.length === 0 ? '<p>The interpretation raised no warning.</p>' : `<p>${warnings.length} warning${warnings.length === 1 ? '' : 's'} raised by the interpretation:</p><ol class="warnings">${items}</ol>`}${tomogramItems}</section>`;
 }
 
 /** Section 10: cautions and limitations: refraction limits, estimated against measured Vs, borings, codes. */
@@ -75,6 +77,7 @@ export function cautionSection(input: ReportInput, fig: Figures): string {
   return `<section id="cautions"><h2><span class="no">10</span> Cautions and limitations</h2>
 <h3>Limits of seismic refraction</h3><ul class="cautions">${list(cautions)}</ul>
 <h3>Estimated against measured shear-wave velocity</h3><p>${escapeHtml(vs)}</p>
+${fig.get('tomogram') !== undefined ? `<h3>Tomogram</h3><ul class="cautions">${((fig.get('tomogram.cautions') as string[]) ?? []).map((c) => `<li>${escapeHtml(c)}</li>`).join('')}</ul>` : ''}
 ${siteCautions.length > 0 ? `<h3>Site class</h3><ul class="cautions">${list(siteCautions)}</ul>` : ''}
 <h3>Conditions that need borings</h3><p>${escapeHtml(borings)}</p>
 <h3>Codes and professional practice</h3><p>${escapeHtml(codes)}</p></section>`;
@@ -83,7 +86,12 @@ ${siteCautions.length > 0 ? `<h3>Site class</h3><ul class="cautions">${list(site
 /** Section 11: what was done, with which parameters, by which program, to which files (SHA-256). */
 export function historySection(input: ReportInput): string {
   const files = input.inputs.map((f) => `<tr><td class="file">${escapeHtml(f.file)}</td><td>${escapeHtml(f.role)}</td><td class="n">${f.bytes}</td><td class="hash">${escapeHtml(f.sha256)}</td></tr>`).join('');
-  const steps = input.result.history.map((s, i) => `<tr><td class="n">${i + 1}</td><td>${escapeHtml(s.step)}</td><td class="params">${Object.entries(s.parameters).map(([k, v]) => `<span>${escapeHtml(k)} = ${escapeHtml(JSON.stringify(v))}</span>`).join(' ')}</td></tr>`).join('');
+  const history = [...input.result.history];
+  if (input.document.tomogram !== undefined) {
+    const t = input.document.tomogram as { grid: { nx: number; nz: number; cell_m: number }; start_model: string; stopped: string; pick_noise_ms: number; iterations: unknown[] };
+    history.push({ step: 'tomography', parameters: { grid_nx: t.grid.nx, grid_nz: t.grid.nz, cell_m: t.grid.cell_m, start_model: t.start_model, iterations: t.iterations.length, stopped: t.stopped, pick_noise_ms: t.pick_noise_ms } });
+  }
+  const steps = history.map((s, i) => `<tr><td class="n">${i + 1}</td><td>${escapeHtml(s.step)}</td><td class="params">${Object.entries(s.parameters).map(([k, v]) => `<span>${escapeHtml(k)} = ${escapeHtml(JSON.stringify(v))}</span>`).join(' ')}</td></tr>`).join('');
   return `<section id="history"><h2><span class="no">11</span> Processing history</h2>
 <p>Interpreted with hammerline ${escapeHtml(input.version)} on ${escapeHtml(input.issued)}. The same program version, given the same input files (checked by their SHA-256 digests) and the same command, gives the same numbers.</p>
 <p class="command"><code>hammerline ${input.command.map((a) => escapeHtml(/^[\w.,:=/@+-]+$/.test(a) ? a : `'${a.replace(/'/g, "'\\''")}'`)).join(' ')}</code></p>

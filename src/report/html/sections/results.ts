@@ -4,6 +4,7 @@ import type { Figures } from '../figures.js';
 import { findStep, parameter } from '../references.js';
 import { depthSectionSvg, METHOD_DASH, REFRACTOR_COLOURS } from '../svg/depthSection.js';
 import { timeDistanceSvg } from '../svg/timeDistance.js';
+import { tomogramSvg, type TomogramDocument } from '../svg/tomogram.js';
 import type { ReportInput } from '../types.js';
 
 const DEPTH_METHODS = ['plus-minus', 'GRM', 'delay-time'];
@@ -25,7 +26,7 @@ export function depthSectionSection(input: ReportInput, fig: Figures): string {
   const { svg, exaggeration } = depthSectionSvg({ receivers: input.receivers, sources, refractors: result.refractors, layerLabels });
   const keys = result.refractors.map((r, k) => `<span class="key"><svg viewBox="0 0 20 8" class="swatch"><rect x="0" y="1" width="20" height="6" fill="${REFRACTOR_COLOURS[k % REFRACTOR_COLOURS.length]}" fill-opacity="0.2"/><line x1="0" y1="4" x2="20" y2="4" stroke="${REFRACTOR_COLOURS[k % REFRACTOR_COLOURS.length]}" stroke-width="2"/></svg>refractor ${r.index}, recommended (${escapeHtml(r.method)}) ± 1 standard error</span>`).join('');
   const methodKeys = DEPTH_METHODS.map((m) => `<span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#444" stroke-width="1" stroke-dasharray="${METHOD_DASH[m]}"/></svg>${escapeHtml(m)}</span>`).join('');
-  const tomogram = fig.get('tomogram') === undefined ? '' : '<p class="notice">A tomogram was computed for this line; it is a second opinion beside the layered section, and is not drawn into it.</p>';
+  const tomogram = fig.get('tomogram') === undefined ? '' : tomogramFigure(input, fig);
   return `<section id="depth-section"><h2><span class="no">4</span> Depth section</h2>
 <figure>${svg}<figcaption><span class="legend"><span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#111" stroke-width="1.6"/></svg>ground surface, geophones</span>${keys}${methodKeys}<span class="key"><svg viewBox="0 0 14 10" class="swatch"><path d="M7 1l4 4l-4 4l-4 -4z" fill="none" stroke="#444"/></svg>intercept-time depth under a source</span></span>
 Figure 2. Interpreted section along the line. Vertical exaggeration ${exaggeration.toFixed(1)} : 1. Bands are ± one standard error of the recommended depth; layer velocities are true velocities ± one standard error. Depths are vertical, below the ground at each geophone.</figcaption></figure>${tomogram}</section>`;
@@ -103,4 +104,17 @@ export function siteSection(input: ReportInput, fig: Figures): string {
 <table class="data"><thead><tr><th>Standard</th><th>Table</th><th>v̄s (m/s)</th><th>Averaged over (m)</th><th>Class</th><th>Probability</th><th>Remarks</th></tr></thead><tbody>${rows}</tbody></table>
 <p class="note">v̄s is averaged over each standard’s own depth (30 m, or 100 ft = 30.48 m for ASCE 7). Probability is the share of Monte Carlo draws (velocities and depths drawn from their standard errors, a station drawn along the line) that give the class shown. A value on a class bound is given to the softer class.</p>
 ${notes ? `<ul class="qualifiers">${notes}</ul>` : ''}</section>`;
+}
+
+/** Figure 3, when a tomogram was made: the velocity grid, its contours, the layered refractors for comparison. */
+function tomogramFigure(input: ReportInput, fig: Figures): string {
+  const t = fig.get('tomogram') as TomogramDocument & { iterations: unknown[]; contours: { velocity_mps: number }[] };
+  const refractors = input.result.refractors.map((r) => r.points.map((p) => ({ x: p.x, elev: p.elev })));
+  const { svg, bands, exaggeration } = tomogramSvg(t, input.receivers, refractors);
+  const last = t.iterations.length - 1;
+  const scale = bands.map((b) => `<span class="key"><svg viewBox="0 0 10 8" class="swatch"><rect x="0" y="0" width="10" height="8" fill="${b.colour}"/></svg>${b.low}–${b.high}</span>`).join('');
+  const rows = t.contours.map((contour, i) => `<tr><td class="n">${fig.num(`tomogram.contours.${i}.velocity_mps`, 0)}</td><td class="n">${fig.agg(`tomogram.contours.${i}.points`, 'depth_m', 'min', 1)} to ${fig.agg(`tomogram.contours.${i}.points`, 'depth_m', 'max', 1)}</td><td class="n">${fig.agg(`tomogram.contours.${i}.points`, 'layered_depth_m', 'min', 1)} to ${fig.agg(`tomogram.contours.${i}.points`, 'layered_depth_m', 'max', 1)}</td></tr>`).join('');
+  const table = t.contours.length === 0 ? '' : `<table class="data"><thead><tr><th>Contour (m/s)</th><th>Contour depth below ground (m)</th><th>Layered depth below ground at the same geophones (m)</th></tr></thead><tbody>${rows}</tbody></table>`;
+  return `<figure class="tomogram">${svg}<figcaption><span class="legend">${scale}<span class="key">m/s</span><span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#111" stroke-width="1.4"/></svg>velocity contour</span><span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#111" stroke-width="1" stroke-dasharray="4 2"/></svg>layered refractor (recommended)</span></span>
+Figure 3. First-arrival traveltime tomogram of the same first breaks, a second opinion beside the layered section and not mixed into it: ${fig.text('tomogram.start_model')}; ${fig.num(`tomogram.iterations.${last}.iteration`, 0)} iterations, RMS misfit ${fig.num(`tomogram.iterations.${last}.rms_ms`, 2)} ms against a pick noise of ${fig.num('tomogram.pick_noise_ms', 2)} ms. Cells no first break samples are blank. Vertical exaggeration ${exaggeration.toFixed(1)} : 1. Contours are drawn at the velocities midway (geometric mean) between consecutive layer velocities; the cautions on tomograms are in section 10.</figcaption></figure>${table}`;
 }
