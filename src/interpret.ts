@@ -13,6 +13,7 @@ import { forwardCheck, type ForwardCheck } from './forward/forwardCheck.js';
 import { linearAt } from './core/interpolate.js';
 import { assignLayers, layerVelocities } from './fit/layers.js';
 import { planSite, type VsFromVpOptions } from './site/fromInterpretation.js';
+import type { PLineCheck } from './site/pLineCheck.js';
 import { assessSite, type SiteAssessment, type SiteOptions, type VsLayer } from './site/siteAssessment.js';
 
 export const VERSION = '0.5.1';
@@ -40,6 +41,8 @@ export interface InterpretationResult extends Interpretation {
   forward?: ForwardCheck;
   /** Vs30 and site classes: for S lines, and for P lines given a Poisson's ratio or Vp/Vs. */
   site?: SiteAssessment;
+  /** An S line checked against the P line over the same ground (interpret --p-line), layer by layer at the same depths. */
+  pLineCheck?: PLineCheck;
   /** A P line given a Poisson's ratio whose Vs could not be had for every layer: the Vs profile and why no class. */
   siteNotClassified?: { vsLayers: VsLayer[]; reason: SiText };
   /** The shot-record files the picks come from (options.records). */

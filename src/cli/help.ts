@@ -1,7 +1,6 @@
 import { VERSION } from '../interpret.js';
 
-/** The text of hammerline --help. */
-export const HELP = `hammerline ${VERSION}: seismic-refraction interpretation for shallow site investigation
+const HEADER = `hammerline ${VERSION}: seismic-refraction interpretation for shallow site investigation
 
 Usage:
   hammerline interpret FILE.csv [FILE.csv ...] [options]
@@ -13,7 +12,9 @@ Usage:
   hammerline site --layer THICKNESS:VELOCITY[:SE] [--layer ...] [--halfspace VELOCITY[:SE]] [options]
   hammerline --help | --version
 
-interpret: reads first-break tables (CSV: source_id, source_x, source_elev, receiver_x,
+`;
+
+const INTERPRET = `interpret: reads first-break tables (CSV: source_id, source_x, source_elev, receiver_x,
 receiver_elev, time_ms or time_s, optional wave) or SEG-2 records, and prints layer velocities with
 their standard errors, the depth to each refractor under every geophone (plus-minus, GRM and
 delay-time; intercept-time under the sources), reciprocal times, a forward check of the section,
@@ -44,16 +45,28 @@ Options for interpret:
                            m/s; the check that catches seconds in time_ms, feet as metres, a
                            SEG-2 SAMPLE_INTERVAL in milliseconds); a warning instead of a stop
 
-Site class (Vs30; ASCE 7-16, ASCE 7-22, EN 1998-1:2004), printed for S-wave lines, or for P-wave
+`;
+
+const SITE_CLASS = `Site class (Vs30; ASCE 7-16, ASCE 7-22, EN 1998-1:2004), printed for S-wave lines, or for P-wave
 lines given a Poisson's ratio:
   --poisson NU[,NU...]     Poisson's ratio, one for every layer or one per layer top down, to
                            ESTIMATE Vs from Vp (the classes are then labelled estimated)
   --vp-vs R[,R...]         the same as a Vp/Vs ratio
-  --p-line FILE.csv        the P-wave line over the same ground, to check that Vs < Vp
+  --layer-poisson N:NU     Poisson's ratio of layer N alone (1 = top); repeatable. A layer whose
+                           Vp lies in 1450-1650 m/s (saturated soil) or below it needs its own
+                           value (this, --layer-vs, or a --poisson list): one ratio for all
+                           layers is not used there, and no class is estimated without it
+  --layer-vs N:VS[:SE]     shear-wave velocity of layer N (m/s, or ft/s with --units ft), for
+                           example from a downhole test; repeatable
+  --p-line FILE.csv        the P-wave line over the same ground (its first-break table): every
+                           Vs is compared with the Vp at the same depth, and Vp/Vs with its
+                           plausible range; shown in the summary and the JSON
   --draws N                Monte Carlo draws (at least 2000, default 4000)
   --seed N                 Monte Carlo seed (default 1)
 
-Shot records (SEG-2; recognised by their first bytes, whatever the name). Several records given
+`;
+
+const RECORDS = `Shot records (SEG-2; recognised by their first bytes, whatever the name). Several records given
 to interpret are the shots of one line: they are picked, then interpreted together.
   --source-x X             source position along the line (for records whose headers lack it;
                            a negative value is joined with =, as --source-x=-6)
@@ -71,7 +84,9 @@ to interpret are the shots of one line: they are picked, then interpreted togeth
   pick writes the first-break table (with confidence, source_file and trace columns); traces
   left unpicked (dead, no clear onset, inconsistent with their neighbours) are listed on stderr.
 
-report: the report of one line for a permit packet, as one self-contained HTML file (figures
+`;
+
+const REPORT = `report: the report of one line for a permit packet, as one self-contained HTML file (figures
 inline, nothing loaded from anywhere) that prints to PDF on A4 or Letter; every option of
 interpret applies (--wave S, --poisson, --p-line, --stations, --segments ...).
   -o, --output FILE.html   the report (whole or not at all; never over an input file)
@@ -97,16 +112,38 @@ interpret applies (--wave S, --poisson, --p-line, --stations, --segments ...).
                            WGS 84 positions of the first and last geophone, decimal degrees,
                            longitude first (a negative longitude is joined with =)
 
-site: classes a hand-entered shear-wave profile (for example from a downhole test):
+`;
+
+const SITE = `site: classes a hand-entered shear-wave profile (for example from a downhole test):
   --layer T:V[:SE]         a layer T thick (m, or ft with --units ft) at shear-wave velocity V
                            (m/s or ft/s), with an optional standard error of V; top down, repeatable
   --halfspace V[:SE]       velocity below the last layer (default: the last layer continues)
   --estimated              the velocities are estimates, not measurements
-  --json, --units, --draws, --seed as above
+  --json                   print the JSON document (schema hammerline/site@1), in m and m/s
+  -o, --output FILE        write the summary or JSON to FILE instead of stdout
+  --units m|ft             unit of thicknesses and velocities given and printed (default m)
+  --draws N                Monte Carlo draws (at least 2000, default 4000); with no standard
+                           error given, no Monte Carlo runs and no probability is printed
+  --seed N                 Monte Carlo seed (default 1)
 
-Exit status: 0 success, 2 bad input (message on stderr; in a batch, a bad file or record is
+`;
+
+const EXIT = `Exit status: 0 success, 2 bad input (message on stderr; in a batch, a bad file or record is
 reported and skipped and the others are done), 1 internal error (a fault of the program).
 `;
+
+/** The text of hammerline --help: every command. */
+export const HELP = HEADER + INTERPRET + SITE_CLASS + RECORDS + REPORT + SITE + EXIT;
+
+/** The help of one command (hammerline COMMAND --help): its own usage and options only. */
+export function commandHelp(command: 'interpret' | 'pick' | 'records' | 'site' | 'report'): string {
+  const usage = (prefix: string) => `hammerline ${VERSION}\n\nUsage:\n${HEADER.split('\n').filter((l) => l.startsWith(`  hammerline ${prefix}`)).join('\n')}\n\n`;
+  if (command === 'interpret') return usage('interpret') + INTERPRET + SITE_CLASS + RECORDS.replace(/  pick writes[\s\S]*$/, '\n') + EXIT;
+  if (command === 'pick') return usage('pick') + 'pick: picks the first breaks of SEG-2 shot records automatically and writes the first-break table.\n  -o, --output FILE.csv    write the table to FILE instead of stdout\n  --units m|ft             unit of the positions given and written (default m)\n  -q, --quiet              no progress messages on stderr\n' + RECORDS + EXIT;
+  if (command === 'records') return usage('records') + 'records: prints the headers and geometry of SEG-2 shot records.\n  --json                   print them as JSON\n\n' + EXIT;
+  if (command === 'report') return usage('report') + REPORT + '(the options of interpret: hammerline interpret --help)\n\n' + EXIT;
+  return usage('site') + SITE + EXIT;
+}
 
 /** The text of hammerline tomography --help. */
 export const TOMOGRAPHY_HELP = `hammerline tomography: first-arrival traveltime tomography of one line

@@ -9,9 +9,9 @@ import type { FirstBreakTable, Wave } from '../core/types.js';
 import type { LengthUnit } from '../core/units.js';
 import type { PickRow } from '../picking/recordPicks.js';
 import { summary } from '../report/summary.js';
-import { checkShearSlowerThanP } from '../site/fromInterpretation.js';
+import { compareWithPLine } from '../site/pLineCheck.js';
 import { keyValue, lengthUnitOption, listOption, numberOption, parse, readInput, SITE_OPTIONS, siteOptions, waveOption } from './args.js';
-import { HELP } from './help.js';
+import { commandHelp } from './help.js';
 import { checkOutputPaths, type CliIo } from './io.js';
 import { GEOMETRY_OPTIONS, isSeg2, pickAll, traceLabeller } from './records.js';
 import type { RecordGroup } from '../picking/pickRecords.js';
@@ -83,6 +83,7 @@ export function interpretChoices(values: Record<string, unknown>, io: CliIo): In
   let pLine: InterpretationResult | undefined;
   if (values['p-line'] !== undefined) {
     const file = values['p-line'] as string;
+    if (isSeg2(io, file)) throw new InputError({ file }, '--p-line takes the first-break table of the P line (one file for the whole line), not a SEG-2 record; pick the P records first: hammerline pick P*.seg2 -o P.csv, then --p-line P.csv');
     const log = new WarningLog();
     pLine = interpret(readFirstBreaks(readInput(io, file), file, log, { lengthUnit: unit, wave: 'P', acceptVelocities }), { ...options, wave: 'P', vsFromVp: undefined }, log);
   }
@@ -126,7 +127,11 @@ export function interpretRecords(records: string[], values: Record<string, unkno
     if (error instanceof InputError) throw new InputError({}, relabel(error.message));
     throw error;
   }
-  for (const w of result.warnings) w.message = relabel(w.message);
+  for (const w of result.warnings) {
+    w.message = relabel(w.message);
+    if (w.parts) w.parts = w.parts.map((p) => (typeof p === 'string' ? relabel(p) : p));
+  }
+  checkAgainstPLine(result, name, choices);
   return { result, table, rows, groups: groups ?? [], skipped };
 }
 
@@ -135,11 +140,17 @@ export function interpretTable(file: string, choices: InterpretChoices, io: CliI
   const log = new WarningLog();
   const table = readFirstBreaks(readInput(io, file), file, log, { lengthUnit: choices.unit, wave: choices.wave, acceptVelocities: choices.acceptVelocities });
   const result = interpret(table, choices.options, log);
-  if (choices.pLine !== undefined) {
-    if (result.wave !== 'S') throw new InputError({ file }, '--p-line compares an S-wave line with a P-wave line; this line is not an S-wave line (use --wave S or a wave column)');
-    checkShearSlowerThanP(result, choices.pLine);
-  }
+  checkAgainstPLine(result, file, choices);
   return { result, table };
+}
+
+/** With --p-line: the S line compared with the P line at the same depths, kept in the result (summary and JSON show it). */
+function checkAgainstPLine(result: InterpretationResult, file: string, choices: InterpretChoices): void {
+  if (choices.pLine === undefined) return;
+  if (result.wave !== 'S') throw new InputError({ file }, '--p-line compares an S-wave line with a P-wave line; this line is not an S-wave line (use --wave S or a wave column)');
+  const log = new WarningLog();
+  result.pLineCheck = compareWithPLine(result, choices.pLine, log);
+  result.warnings.push(...log.items);
 }
 
 /** hammerline interpret: first-break tables (one line each) or the SEG-2 records of one line. */
@@ -151,7 +162,7 @@ export function interpretCommand(args: string[], io: CliIo): number {
     ...INTERPRET_OPTIONS,
   });
   if (values.help) {
-    io.stdout(HELP);
+    io.stdout(commandHelp('interpret'));
     return 0;
   }
   if (positionals.length === 0) throw new InputError({}, 'interpret needs at least one first-break table (FILE.csv)');

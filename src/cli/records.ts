@@ -8,7 +8,7 @@ import type { Seg2Record } from '../io/seg2/types.js';
 import { readStations } from '../io/stationsCsv.js';
 import { pickSeg2, type PickRow } from '../picking/recordPicks.js';
 import { pickRecords, type RecordGroup, type RecordsPickOptions } from '../picking/pickRecords.js';
-import { HELP } from './help.js';
+import { commandHelp } from './help.js';
 import { lengthUnitOption, listOption, numberOption, parse, readInput, waveOption } from './args.js';
 import { checkOutputPaths, type CliIo } from './io.js';
 
@@ -170,7 +170,7 @@ export function traceLabeller(rows: PickRow[]): (text: string) => string {
 
 export function pickCommand(args: string[], io: CliIo): number {
   const { values, positionals } = parse(args, { ...GEOMETRY_OPTIONS, wave: { type: 'string' }, output: { type: 'string', short: 'o' }, units: { type: 'string' }, quiet: { type: 'boolean', short: 'q' }, 'accept-velocities': { type: 'boolean' }, help: { type: 'boolean', short: 'h' } });
-  if (values.help) { io.stdout(HELP); return 0; }
+  if (values.help) { io.stdout(commandHelp('pick')); return 0; }
   if (positionals.length === 0) throw new InputError({}, 'pick needs at least one SEG-2 record (SHOT.seg2)');
   checkOutputPaths([...positionals, ...(typeof values.stations === 'string' ? [values.stations] : [])], [{ option: '-o', path: values.output as string | undefined }]);
   const unit = lengthUnitOption(values.units as string | undefined);
@@ -186,7 +186,7 @@ export function pickCommand(args: string[], io: CliIo): number {
 
 export function recordsCommand(args: string[], io: CliIo): number {
   const { values, positionals } = parse(args, { json: { type: 'boolean' }, help: { type: 'boolean', short: 'h' } });
-  if (values.help) { io.stdout(HELP); return 0; }
+  if (values.help) { io.stdout(commandHelp('records')); return 0; }
   if (positionals.length === 0) throw new InputError({}, 'records needs at least one SEG-2 record (SHOT.seg2)');
   const summaries = positionals.map((file) => {
     const record = readRecord(io, file);

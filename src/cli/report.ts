@@ -17,7 +17,7 @@ import { renderPdf, requireChromium } from './pdf.js';
 import { reportHtml } from '../report/html/reportHtml.js';
 import type { ReportInputFile } from '../report/html/types.js';
 import { parse, readInput } from './args.js';
-import { HELP } from './help.js';
+import { commandHelp } from './help.js';
 import { INTERPRET_OPTIONS, interpretChoices, interpretRecords, interpretTable } from './interpret.js';
 import { checkOutputPaths, type CliIo } from './io.js';
 import { isSeg2 } from './records.js';
@@ -51,7 +51,7 @@ function todayUtc(): string {
 export function reportCommand(args: string[], io: CliIo, context: { now?: () => string; version?: string } = {}): number {
   const { values, positionals } = parse(args, { ...INTERPRET_OPTIONS, ...REPORT_OPTIONS });
   if (values.help) {
-    io.stdout(HELP);
+    io.stdout(commandHelp('report'));
     return 0;
   }
   if (positionals.length === 0) throw new InputError({}, 'report needs the first breaks of one line: a first-break table (FILE.csv) or the SEG-2 records of the line');

@@ -5,7 +5,7 @@ import { VERSION } from '../interpret.js';
 import { siteSummary } from '../report/siteSummary.js';
 import { assessSite, type SiteInput } from '../site/siteAssessment.js';
 import { lengthUnitOption, numberOption, parse, SITE_OPTIONS, siteOptions } from './args.js';
-import { HELP } from './help.js';
+import { commandHelp } from './help.js';
 import type { CliIo } from './io.js';
 
 /** hammerline site: the site classes of a hand-entered shear-wave profile. */
@@ -21,7 +21,7 @@ export function siteCommand(args: string[], io: CliIo): number {
     ...SITE_OPTIONS,
   });
   if (values.help) {
-    io.stdout(HELP);
+    io.stdout(commandHelp('site'));
     return 0;
   }
   if (positionals.length > 0) throw new InputError({}, `site takes a hand-entered profile (--layer, --halfspace), not files; for a line use: hammerline interpret ${positionals[0]}`);

@@ -75,6 +75,15 @@ export function interpretationJson(result: InterpretationResult, extra: Record<s
       } : {}),
     })),
     branches: result.fits.map(branch),
+    ...(result.pLineCheck ? {
+      p_line_check: {
+        file: result.pLineCheck.file,
+        layers: result.pLineCheck.layers.map((c) => ({
+          layer: c.layer, top_m: round(c.top, 2), bottom_m: round(c.bottom, 2), vs_mps: round(c.vs, 1), p_layer: c.pLayer, vp_mps: round(c.vp, 1),
+          slowest_vp_mps: round(c.slowestVp, 1), vp_vs: round(c.ratio, 3), range: [round(c.range[0], 3), round(c.range[1], 3)], range_basis: c.basis, plausible: c.plausible,
+        })),
+      },
+    } : {}),
     ...(result.site ? { site: siteJson(result.site) } : result.siteNotClassified ? { site: siteNotClassifiedJson(result.siteNotClassified.vsLayers, result.siteNotClassified.reason.text) } : {}),
     qc: {
       fit_rms_ms: round(result.fitRmsSeconds * 1e3, 3),

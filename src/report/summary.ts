@@ -3,6 +3,7 @@ import { fromMetres, velocityLabel, type LengthUnit } from '../core/units.js';
 import type { InterpretationResult } from '../interpret.js';
 import { VERSION } from '../interpret.js';
 import { plusMinus, table } from './format.js';
+import type { PLineCheck } from '../site/pLineCheck.js';
 import { siteSummary, vsProfileTable } from './siteSummary.js';
 import { displayText } from './unitText.js';
 
@@ -78,6 +79,7 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
     out.push(`Reciprocal times: ${result.reciprocal.length} pair${result.reciprocal.length > 1 ? 's' : ''} checked, ${bad.length} beyond the ${(result.reciprocal[0].tolerance * 1e3).toFixed(2)} ms tolerance${bad.length > 0 ? `: ${bad.map((c) => `${c.sourceA}-${c.sourceB} ${(c.difference * 1e3).toFixed(2)} ms`).join(', ')}` : ''}; largest difference ${(Math.max(...result.reciprocal.map((c) => c.difference)) * 1e3).toFixed(2)} ms`);
     out.push('');
   }
+  if (result.pLineCheck) out.push(...pLineSummary(result.pLineCheck, unit));
   if (result.site) out.push(...siteSummary(result.site, unit));
   else if (result.siteNotClassified) {
     out.push('Site class: not estimated', `  ${displayText(result.siteNotClassified.reason, unit)}.`, ...vsProfileTable(result.siteNotClassified.vsLayers, unit), '');
@@ -93,4 +95,20 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
   out.push('Cautions');
   for (const c of result.cautions) out.push(`  - ${displayText(c, unit)}`);
   return out.join('\n') + '\n';
+}
+
+/** The S line against the P line at the same depths (interpret --p-line). */
+export function pLineSummary(check: PLineCheck, unit: LengthUnit): string[] {
+  const v = (mps: number) => Math.round(fromMetres(mps, unit)).toString();
+  const d = (m: number) => fromMetres(m, unit).toFixed(1);
+  const rows = check.layers.map((c) => [
+    String(c.layer), c.bottom === undefined ? `below ${d(c.top)}` : `${d(c.top)} to ${d(c.bottom)}`, v(c.vs), `${v(c.vp)} (P layer ${c.pLayer})`, c.ratio.toFixed(2),
+    `${c.range[0].toFixed(2)} to ${c.range[1] === undefined ? 'no upper bound' : c.range[1].toFixed(2)}`, c.plausible ? 'plausible' : 'OUTSIDE the range',
+  ]);
+  return [
+    `Check against the P line ${check.file}: every Vs below the Vp at the same depth (shear waves are slower than P waves in the same material), and Vp/Vs in a plausible range`,
+    ...table(['S layer', `depth (${unit})`, `Vs (${velocityLabel(unit)})`, `Vp at that depth (${velocityLabel(unit)})`, 'Vp/Vs', 'plausible range', 'verdict'], rows).map((s) => `  ${s}`),
+    ...[...new Set(check.layers.map((c) => c.basis))].map((b) => `  Range: ${b}.`),
+    '',
+  ];
 }

@@ -3,7 +3,6 @@ import { InputError } from '../core/errors.js';
 import { si, vel, type SiText } from '../core/siText.js';
 import { depthAt } from '../depth/delayProfile.js';
 import type { Interpretation, Layer, Refractor } from '../core/types.js';
-import type { InterpretationResult } from '../interpret.js';
 import type { SiteInput, SiteStation, VsLayer } from './siteAssessment.js';
 import { poissonFromRatio, vpVsRatio } from './vsFromVp.js';
 
@@ -175,22 +174,4 @@ function stationsAlong(refractors: Refractor[], receiverXs: number[]): SiteStati
     }
     return { x, depths, depthSes };
   });
-}
-
-/**
- * Rejects an S line faster than the P line over the same ground: Vs < Vp in the same material
- * (common practice), so such a pair means a mislabelled file or a wrong pick.
- *
- * @throws InputError naming both files and the layer
- */
-export function checkShearSlowerThanP(sLine: InterpretationResult, pLine: InterpretationResult): void {
-  const count = Math.min(sLine.layers.length, pLine.layers.length);
-  for (let i = 0; i < count; i++) {
-    const vs = sLine.layers[i].velocity;
-    const vp = pLine.layers[i].velocity;
-    if (vs >= vp) {
-      throw new InputError({ file: sLine.file },
-        `layer ${i + 1} has Vs ${Math.round(vs)} m/s, not slower than Vp ${Math.round(vp)} m/s on the P line ${pLine.file}; shear waves are always slower than P waves in the same material, so check that the files are not swapped and that the S picks are shear arrivals`);
-    }
-  }
 }

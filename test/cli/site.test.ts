@@ -51,3 +51,23 @@ describe('hammerline site', () => {
     expect(texts[0]).toMatch(/classes by Table 20\.3-1.*Confirm the table against the edition the jurisdiction has adopted/);
   });
 });
+
+describe('hammerline COMMAND --help', () => {
+  it('each subcommand\'s --help prints its own help, not the whole of hammerline --help', () => {
+    const whole = run(['--help']).stdout;
+    const own: Record<string, [RegExp, RegExp]> = {
+      interpret: [/--poisson NU.*[\s\S]*--layer-poisson N:NU[\s\S]*--p-line FILE\.csv/, /site: classes a hand-entered|report: the report|records: prints/],
+      site: [/--layer T:V\[:SE\][\s\S]*--halfspace/, /--segments|--poisson|--bandpass/],
+      pick: [/--source-x X[\s\S]*--bandpass/, /--poisson|--halfspace/],
+      records: [/records: prints the headers/, /--poisson|--halfspace|--segments/],
+      report: [/--pdf FILE\.pdf/, /--halfspace|site: classes/],
+    };
+    for (const [command, [has, hasNot]] of Object.entries(own)) {
+      const { code, stdout } = run([command, '--help']);
+      expect(code, command).toBe(0);
+      expect(stdout, command).toMatch(has);
+      expect(stdout, command).not.toMatch(hasNot);
+      expect(stdout.length, command).toBeLessThan(whole.length);
+    }
+  });
+});

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/core/errors.js';
-import { checkShearSlowerThanP } from '../../src/site/fromInterpretation.js';
+import { compareWithPLine } from '../../src/site/pLineCheck.js';
 import { assessSite, type SiteInput } from '../../src/site/siteAssessment.js';
 import { vs30 } from '../../src/site/vs30.js';
 import { syntheticCsv } from '../reference/layeredTravelTimes.js';
@@ -122,10 +122,10 @@ describe('site class of a line', () => {
     expect(site.estimatedFromVp).toBe(true);
   });
 
-  it('checkShearSlowerThanP rejects an S line faster than the P line over the same ground (Vs < Vp, common practice)', () => {
+  it('compareWithPLine rejects an S line faster than the P line over the same ground (Vs < Vp, common practice)', () => {
     const sLine = interpretCsv(csv, { wave: 'S' }).result;
     const slowP = interpretCsv(syntheticCsv({ surface: () => 10, interfaces: [() => 8, () => -1], velocities: [140, 280, 900] }, [-4.5, 0, 36, 70.5, 75], range(48, 1.5), 0.3, 4)).result;
-    expect(() => checkShearSlowerThanP(sLine, slowP)).toThrow(InputError);
-    expect(() => checkShearSlowerThanP(sLine, slowP)).toThrow(/layer 1 has Vs 16\d m\/s, not slower than Vp 1\d\d m\/s/);
+    expect(() => compareWithPLine(sLine, slowP)).toThrow(InputError);
+    expect(() => compareWithPLine(sLine, slowP)).toThrow(/layer 1 \(0\.0 to 2\.\d m\) has Vs 16\d m\/s, not slower than Vp 1\d\d m\/s/);
   });
 });
