@@ -90,6 +90,7 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
   const spacing = receiverSpacing(table);
   const missing = missingJobDetails(job);
   if (!table.hasElevations && values.stations === undefined) missing.push('ground elevations (none were supplied; flat ground was assumed)');
+  else if (job.elevationDatum === undefined) missing.push('Elevation datum (of the ground elevations supplied)');
   const notices: string[] = [];
   if (job.geophoneSpacing !== undefined && Math.abs(job.geophoneSpacing - spacing) > 0.02 * spacing) {
     notices.push(`The nominal geophone spacing given (${job.geophoneSpacing.toFixed(2)} m) differs from the median spacing of the data (${spacing.toFixed(2)} m); the data are used.`);

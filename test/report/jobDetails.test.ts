@@ -35,9 +35,9 @@ describe('job details', () => {
     const job = 'client: Example Holdings\nsite: Orrin valley terrace\nline: T-2S\ndate: 2026-05-14\n';
     const r = runReport(['report', SH, '-o', 'r.html', '--job', 'job.txt', '--operator', 'A. Field'], { 'job.txt': job });
     expect(r.code).toBe(0);
-    expect(r.stderr).toMatch(/the report lists as not supplied: Equipment; Seismic source; First geophone coordinates; Last geophone coordinates/);
+    expect(r.stderr).toMatch(/the report lists as not supplied: Equipment; Seismic source; First geophone coordinates; Last geophone coordinates; Elevation datum \(of the ground elevations supplied\)/);
     const html = r.written['r.html'];
-    expect(html).toMatch(/Details a reviewer would expect that were not supplied:<\/strong> Equipment; Seismic source; First geophone coordinates; Last geophone coordinates\./);
+    expect(html).toMatch(/Details a reviewer would expect that were not supplied:<\/strong> Equipment; Seismic source; First geophone coordinates; Last geophone coordinates; Elevation datum \(of the ground elevations supplied\)\./);
     expect(html).toMatch(/<th scope="row">Field operator<\/th><td>A\. Field<\/td>/);
     // SHA-256 of the sidecar's bytes, computed by `printf 'client: Example Holdings\nsite: Orrin valley terrace\nline: T-2S\ndate: 2026-05-14\n' | sha256sum`.
     expect(html).toContain('<td class="file">job.txt</td><td>job details</td><td class="n">80</td><td class="hash">');

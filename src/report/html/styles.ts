@@ -32,7 +32,7 @@ table.kv th { font-weight: normal; width: 70%; border-bottom: 0.4pt solid var(--
 table.depths td, table.depths th { padding: 0.55mm 1.4mm; font-size: 8.3pt; }
 td.n, th.n { text-align: right; white-space: nowrap; }
 td.rec { font-weight: 600; }
-td.tight { white-space: nowrap; }
+.tight { white-space: nowrap; }
 td.cls { font-weight: 700; }
 table.methods td { font-size: 8.6pt; border-bottom: 0.4pt solid var(--rule); }
 table.methods th { border-top: 1pt solid var(--ink); border-bottom: 0.75pt solid var(--ink); background: var(--faint); font-size: 8.5pt; }
@@ -71,6 +71,7 @@ svg .outlier { stroke-width: 1.2; fill: none; }
 svg .band { fill-opacity: 0.18; stroke: none; }
 svg .method-line { fill: none; stroke-width: 0.9; stroke-opacity: 0.85; }
 svg .recommended { fill: none; stroke-width: 2.1; }
+svg .interpolated { fill: none; stroke: #fff; stroke-width: 1; stroke-dasharray: 3 3; }
 svg .intercept { fill: #fff; stroke-width: 1; }
 svg .ground { fill: none; stroke: #111; stroke-width: 1.5; }
 svg .geophones line { stroke: #111; stroke-width: 0.8; }

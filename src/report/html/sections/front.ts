@@ -56,10 +56,10 @@ export function summarySection(input: ReportInput, fig: Figures): string {
   if (refractors.length === 0) items.push('<li>No refractor was found: the first breaks fit the direct wave alone, so no depth can be reported.</li>');
   if (wave === 'P' && waterRefractors.size === 0) items.push(`<li>Water table: no refractor in the band of saturated soil (${WATER_TABLE_VP_MIN}–${WATER_TABLE_VP_MAX} m/s) was seen; a water table inside a layer, or below the deepest refractor, would not show.</li>`);
   if (wave === 'S') items.push('<li>Water table: shear waves are not sped up by pore water, so an S-wave line does not show it.</li>');
-  const site = fig.get('site') as { estimated: boolean; classes: { standard: string; class: string }[] } | undefined;
+  const site = fig.get('site') as { estimated: boolean; classes: { standard: string; class: string; borderline: boolean; neighbour?: string }[] } | undefined;
   if (site) {
     const label = site.estimated ? ' <strong>(ESTIMATED from Vp, not measured)</strong>' : ' (from measured shear-wave velocities)';
-    items.push(`<li>Vs30 ${fig.num('site.vs30_mps', 0)} m/s, 5th–95th percentile ${fig.num('site.vs30_low_mps', 0)} to ${fig.num('site.vs30_high_mps', 0)} m/s${label}. Site class: ${site.classes.map((c, i) => `${escapeHtml(c.standard)} <strong>${escapeHtml(c.class)}${site.estimated ? ' (estimated)' : ''}</strong> (probability ${fig.num(`site.classes.${i}.probability`, 2)})`).join('; ')}.</li>`);
+    items.push(`<li>Vs30 ${fig.num('site.vs30_mps', 0)} m/s, 5th–95th percentile ${fig.num('site.vs30_low_mps', 0)} to ${fig.num('site.vs30_high_mps', 0)} m/s${label}. Site class: ${site.classes.map((c, i) => `<span class="tight">${escapeHtml(c.standard)}</span> <strong>${escapeHtml(c.class)}${site.estimated ? ' (estimated)' : ''}</strong> (probability ${fig.num(`site.classes.${i}.probability`, 2)}${c.borderline ? `, borderline: ${escapeHtml(c.neighbour ?? 'another class')} possible` : ''})`).join('; ')}.</li>`);
   } else {
     items.push(`<li>Site class: not assessed. ${wave === 'P' ? 'Shear-wave velocities cannot be had from a P-wave line alone; an S-wave line, or an assumed Poisson’s ratio (an estimate), is needed.' : 'No station along the line has a depth to every refractor.'}</li>`);
   }

@@ -9,6 +9,8 @@ export interface SectionRefractor {
   method: string;
   points: RefractorPoint[];
   byMethod: Record<string, RefractorPoint[]>;
+  /** Method of each recommended point ("interpolated" where a gap was filled). */
+  pointMethods?: string[];
 }
 
 export interface SectionInput {
@@ -76,6 +78,9 @@ export function depthSectionSvg(input: SectionInput, width = 680, height = 330):
       for (const run of runs(points)) parts.push(`<path class="method-line" d="${path(run.map((p) => ({ x: p.x, y: p.elev })))}" stroke="${colour}" stroke-dasharray="${METHOD_DASH[method] ?? '3 3'}"/>`);
     }
     for (const run of runs(r.points)) parts.push(`<path class="recommended" d="${path(run.map((p) => ({ x: p.x, y: p.elev })))}" stroke="${colour}"/>`);
+    // Stretches filled by interpolation between covered geophones are drawn over in white dashes.
+    const interpolated = r.points.map((p, i) => ({ p, i })).filter(({ i }) => r.pointMethods?.[i] === 'interpolated');
+    for (const run of runs(interpolated.map(({ p }) => p))) if (run.length > 1) parts.push(`<path class="interpolated" d="${path(run.map((p) => ({ x: p.x, y: p.elev })))}"/>`);
     for (const p of r.byMethod['intercept-time'] ?? []) {
       const px = f.x(p.x);
       const py = f.y(p.elev);
