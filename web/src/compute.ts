@@ -1,0 +1,311 @@
+import { InputError } from '../../src/core/errors.js';
+import { linearAt } from '../../src/core/interpolate.js';
+import type { FirstBreakTable, Wave } from '../../src/core/types.js';
+import type { LengthUnit } from '../../src/core/units.js';
+import { WarningLog } from '../../src/core/warnings.js';
+import { sampleSection, sectionTimes } from '../../src/forward/sectionTimes.js';
+import { depthsCsv } from '../../src/io/depthsCsv.js';
+import { readFirstBreaks } from '../../src/io/firstBreaksCsv.js';
+import { interpretationJson } from '../../src/io/interpretationJson.js';
+import { pickTableCsv, unpickedSummary } from '../../src/io/pickTable.js';
+import type { PickEdit, ProjectChoices, ProjectInput } from '../../src/io/projectFile.js';
+import { readSeg2 } from '../../src/io/seg2/read.js';
+import { readStations } from '../../src/io/stationsCsv.js';
+import { interpret, receiverGround, receiverSpacing, type InterpretationResult, type InterpretOptions } from '../../src/interpret.js';
+import { pickSeg2, type PickRow, type Stations } from '../../src/picking/recordPicks.js';
+import { checkRecordVelocities, traceLabeller } from './recordRules.js';
+import { firstBreakTableCsv } from './tableCsv.js';
+
+/** Key of a pick: a record's trace or a table's file row. */
+export function pickKey(file: string, where: { trace?: number; row?: number }): string {
+  return where.trace !== undefined ? `${file}#t${where.trace}` : `${file}#r${where.row}`;
+}
+
+/** One pick (or unpicked trace) as the views show it. Lengths in metres, times in seconds. */
+export interface PickView {
+  key: string;
+  file: string;
+  trace?: number;
+  row?: number;
+  sourceId: string;
+  sourceX: number;
+  receiverX: number;
+  /** The time used, undefined when the trace is unpicked or the pick cleared. */
+  time?: number;
+  /** The automatic pick of a record's trace. */
+  autoTime?: number;
+  confidence?: number;
+  status?: string;
+  edited: boolean;
+  /** Layer each fitted branch gave the pick (1 = direct wave), and whether a fit left it out. */
+  layer?: number;
+  outlier: boolean;
+}
+
+export interface Residual {
+  key: string;
+  sourceId: string;
+  receiverX: number;
+  /** Pick minus the first arrival computed through the section, in seconds. */
+  difference: number;
+}
+
+export interface LineView {
+  ok: true;
+  name: string;
+  kind: 'records' | 'table';
+  /** The interpretation document, as `hammerline interpret --json` writes it. */
+  document: Record<string, unknown>;
+  result: InterpretationResult;
+  picks: PickView[];
+  receivers: { x: number; elev: number }[];
+  sources: { id: string; x: number; elev: number }[];
+  residuals: Residual[];
+  exports: { picksCsv: string; picksName: string; interpretationJson: string; depthsCsv: string };
+  milliseconds: { picking: number; interpretation: number };
+}
+
+export interface LineFailure {
+  ok: false;
+  message: string;
+}
+
+/** The worker's cache: records read and picked once per set of inputs. */
+export class LineCache {
+  private inputs: ProjectInput[] = [];
+  private picked = new Map<string, PickRow[]>();
+
+  setInputs(inputs: ProjectInput[]): void {
+    this.inputs = inputs;
+    this.picked.clear();
+  }
+
+  getInputs(): ProjectInput[] {
+    return this.inputs;
+  }
+
+  /** Automatic picks of a record, with the station table when there is one (same as `hammerline pick`). */
+  rows(input: ProjectInput, stations: Stations | undefined, wave: Wave | 'any'): PickRow[] {
+    let rows = this.picked.get(input.name);
+    if (rows === undefined) {
+      rows = pickedRecord(input, stations, wave);
+      this.picked.set(input.name, rows);
+    }
+    return rows;
+  }
+}
+
+/** A record read and picked as `hammerline pick` does it, its units judged from the picks. */
+function pickedRecord(input: ProjectInput, stations: Stations | undefined, wave: Wave | 'any'): PickRow[] {
+  const record = readSeg2(input.bytes, input.name);
+  let rows: PickRow[];
+  try {
+    rows = pickSeg2(record, { stations });
+  } catch (error) {
+    if (error instanceof RangeError) throw new InputError({ file: input.name }, error.message);
+    throw error;
+  }
+  checkRecordVelocities(record, rows, wave);
+  return rows;
+}
+
+/** Checks that one file can be read as the kind it claims, without touching the session. */
+export function checkInput(input: ProjectInput): void {
+  const text = () => new TextDecoder().decode(input.bytes);
+  // A record's positions may need the station table, which may come later: it is read, and picked when it can be.
+  if (input.kind === 'seg2') {
+    try {
+      pickedRecord(input, undefined, 'any');
+    } catch (error) {
+      if (!(error instanceof InputError && /SOURCE_LOCATION|RECEIVER_LOCATION/.test(error.message))) throw error;
+    }
+  }
+  else if (input.kind === 'stations') readStations(text(), input.name, input.lengthUnit);
+  else readFirstBreaks(text(), input.name, new WarningLog(), { lengthUnit: input.lengthUnit });
+}
+
+/** The options `hammerline interpret` would be given for these choices. */
+export function interpretOptions(choices: ProjectChoices): InterpretOptions {
+  return {
+    wave: choices.wave,
+    directThroughOrigin: choices.directThroughOrigin,
+    allowShortBranches: false,
+    site: {},
+    ...(Object.keys(choices.segments).length > 0 ? { segments: { ...choices.segments } } : {}),
+    ...(Object.keys(choices.breakpoints).length > 0 ? { breakpoints: { ...choices.breakpoints } } : {}),
+    ...(choices.poisson !== undefined ? { vsFromVp: { poisson: [choices.poisson] } } : {}),
+  };
+}
+
+/**
+ * Interprets the line of a project with the same src/ code and in the same order as the command
+ * line: SEG-2 records are read, picked (pickSeg2), written as the first-break table and read back
+ * (readFirstBreaks), then interpret(); a first-break table is read and interpreted. Picks set by
+ * hand replace the automatic ones (or the table's) before the interpretation.
+ */
+export function computeLine(cache: LineCache, picks: PickEdit[], choices: ProjectChoices, units: LengthUnit): LineView | LineFailure {
+  try {
+    return compute(cache, picks, choices, units);
+  } catch (error) {
+    if (error instanceof InputError || error instanceof RangeError) return { ok: false, message: error.message };
+    throw error;
+  }
+}
+
+function compute(cache: LineCache, edits: PickEdit[], choices: ProjectChoices, units: LengthUnit): LineView | LineFailure {
+  const inputs = cache.getInputs();
+  const records = inputs.filter((i) => i.kind === 'seg2');
+  const tables = inputs.filter((i) => i.kind === 'first-breaks');
+  const stationsInput = inputs.find((i) => i.kind === 'stations');
+  const byKey = new Map(edits.map((e) => [pickKey(e.file, e), e]));
+  const options = interpretOptions(choices);
+  const started = performance.now();
+  let table: FirstBreakTable;
+  let log: WarningLog;
+  let picks: PickView[];
+  let name: string;
+  let picksCsv: string;
+  let extra: Record<string, unknown> = {};
+  let relabel = (text: string) => text;
+  if (records.length > 0) {
+    const stations = stationsInput ? readStations(new TextDecoder().decode(stationsInput.bytes), stationsInput.name, stationsInput.lengthUnit) : undefined;
+    const automatic = records.flatMap((r) => cache.rows(r, stations, choices.wave ?? 'P'));
+    const rows: PickRow[] = automatic.map((row) => {
+      const edit = byKey.get(pickKey(row.file, row));
+      if (edit === undefined) return row;
+      return edit.time === null
+        ? { ...row, time: undefined, confidence: 0, status: 'cleared by hand' as PickRow['status'] }
+        : { ...row, time: edit.time, confidence: 1, status: 'picked' };
+    });
+    name = records.length === 1 ? records[0].name : `${records[0].name} and ${records.length - 1} more record${records.length > 2 ? 's' : ''}`;
+    log = new WarningLog();
+    for (const sentence of unpickedSummary(rows)) log.add('unpicked-traces', sentence);
+    if (byKey.size > 0) log.add('picks-edited', `${edits.filter((e) => e.time !== null).length} pick${edits.length === 1 ? '' : 's'} set by hand and ${edits.filter((e) => e.time === null).length} cleared; the automatic picks of the other traces are kept`);
+    picksCsv = pickTableCsv(rows, units);
+    const pickedRows = rows.filter((r) => r.time !== undefined);
+    // The picks reach the interpretation as a table; its rows are traces of records to the user.
+    relabel = traceLabeller(rows);
+    try {
+      table = readFirstBreaks(pickTableCsv(rows, 'm', false), name, log, { wave: choices.wave });
+    } catch (error) {
+      if (error instanceof InputError) throw new InputError({}, relabel(error.message));
+      throw error;
+    }
+    // pickTableCsv writes the header on file row 1 and the picked traces in order below it.
+    const rowKey = new Map(pickedRows.map((r, i) => [i + 2, pickKey(r.file, r)]));
+    picks = rows.map((r, i) => ({
+      key: pickKey(r.file, r), file: r.file, trace: r.trace, sourceId: r.sourceId, sourceX: r.sourceX, receiverX: r.receiverX,
+      time: r.time, autoTime: automatic[i].time, confidence: r.confidence, status: r.status, edited: byKey.has(pickKey(r.file, r)), outlier: false,
+    }));
+    extra = { picking: { records: records.map((r) => r.name), wave: undefined, picked: pickedRows.length, traces: rows.length } };
+    return finish(rowKey);
+  }
+  if (tables.length !== 1) return { ok: false, message: 'Load the SEG-2 records of a line, or one first-break table, to begin.' };
+  const input = tables[0];
+  name = input.name;
+  log = new WarningLog();
+  table = readFirstBreaks(new TextDecoder().decode(input.bytes), name, log, { lengthUnit: input.lengthUnit, wave: choices.wave });
+  const all = table.picks;
+  const extraByRow = new Map(all.map((p, i) => [p.row, table.extraValues[i]]));
+  table.picks = table.picks.flatMap((p) => {
+    const edit = byKey.get(pickKey(name, { row: p.row }));
+    if (edit === undefined) return [p];
+    return edit.time === null ? [] : [{ ...p, time: edit.time }];
+  });
+  const removed = edits.filter((e) => e.time === null).map((e) => e.row!);
+  if (byKey.size > 0) log.add('picks-edited', `${edits.length - removed.length} pick${edits.length - removed.length === 1 ? '' : 's'} of ${name} moved by hand and ${removed.length} left out (rows ${removed.length > 0 ? removed.join(', ') : 'none'})`);
+  picksCsv = firstBreakTableCsv(table, units, extraByRow);
+  const rowKey = new Map(table.picks.map((p) => [p.row, pickKey(name, { row: p.row })]));
+  picks = all.map((p) => {
+    const key = pickKey(name, { row: p.row });
+    const edit = byKey.get(key);
+    return { key, file: name, row: p.row, sourceId: p.sourceId, sourceX: p.sourceX, receiverX: p.receiverX, time: edit ? (edit.time ?? undefined) : p.time, autoTime: p.time, edited: edit !== undefined, outlier: false };
+  });
+  return finish(rowKey);
+
+  function finish(rowKey: Map<number, string>): LineView {
+    const picked = performance.now();
+    let result: InterpretationResult;
+    try {
+      result = interpret(table, options, log);
+    } catch (error) {
+      if (error instanceof InputError) throw new InputError({}, relabel(error.message));
+      throw error;
+    }
+    for (const w of result.warnings) w.message = relabel(w.message);
+    const interpreted = performance.now();
+    if (extra.picking) (extra.picking as Record<string, unknown>).wave = result.wave;
+    const document = interpretationJson(result, extra);
+    // The records a site class rests on (as interpret writes it).
+    if (extra.picking && document.site !== undefined) (document.site as Record<string, unknown>).records = (result as { records?: string[] }).records ?? records.map((r) => r.name);
+    const byPick = new Map(picks.map((p) => [p.key, p]));
+    for (const fit of result.fits) {
+      for (const segment of fit.segments) {
+        for (let i = segment.start; i < segment.end; i++) {
+          const view = byPick.get(rowKey.get(fit.branch.picks[i].row)!);
+          if (view === undefined) continue;
+          // A zero-offset pick belongs to every branch of its source; the direct wave wins.
+          view.layer = view.layer === undefined ? segment.layer : Math.min(view.layer, segment.layer);
+        }
+      }
+      for (const row of fit.outlierRows) {
+        const view = byPick.get(rowKey.get(row)!);
+        if (view) view.outlier = true;
+      }
+    }
+    const receivers = receiverGround(table);
+    const sources = [...new Map(table.picks.map((p) => [p.sourceId, { id: p.sourceId, x: p.sourceX, elev: p.sourceElev }])).values()];
+    return {
+      ok: true,
+      name,
+      kind: records.length > 0 ? 'records' : 'table',
+      document,
+      result,
+      picks,
+      receivers,
+      sources,
+      residuals: residuals(result, receivers, receiverSpacing(table), rowKey),
+      exports: {
+        picksCsv,
+        picksName: `${name.replace(/ and \d+ more records?$/, '').replace(/\.[^.]*$/, '')}-first-breaks.csv`,
+        interpretationJson: JSON.stringify(document, null, 2) + '\n',
+        depthsCsv: depthsCsv(result, receivers, units),
+      },
+      milliseconds: { picking: picked - started, interpretation: interpreted - picked },
+    };
+  }
+}
+
+/**
+ * Pick minus computed first arrival for every pick the forward check uses: the same section,
+ * sampling and choice of sources as src/forward/forwardCheck.ts (which gives only the RMS and the
+ * worst pick), kept per pick so the checks view can show each one.
+ */
+function residuals(result: InterpretationResult, receivers: { x: number; elev: number }[], spacing: number, rowKey: Map<number, string>): Residual[] {
+  if (result.forward === undefined) return [];
+  const fits = result.fits;
+  const usable = result.layers.slice(0, result.refractors.length + 1);
+  const xs = receivers.map((r) => r.x);
+  const elevs = receivers.map((r) => r.elev);
+  const section = {
+    ground: (x: number) => linearAt(xs, elevs, x),
+    refractors: result.refractors.map((r) => r.points.map((p) => ({ x: p.x, elev: p.elev }))),
+    velocities: usable.map((l) => l.velocity),
+  };
+  const all = fits.flatMap((f) => f.branch.picks.map((p) => p.receiverX).concat(f.branch.sourceX));
+  const span: [number, number] = [Math.min(...all) - 2 * spacing, Math.max(...all) + 2 * spacing];
+  const sampled = sampleSection(section, span, Math.max(spacing / 2, (span[1] - span[0]) / 400));
+  const receiverXs = fits.flatMap((f) => f.branch.picks.map((p) => p.receiverX));
+  const first = Math.min(...receiverXs);
+  const last = Math.max(...receiverXs);
+  const out: Residual[] = [];
+  for (const sourceId of [...new Set(fits.map((f) => f.branch.sourceId))]) {
+    const sourceFits = fits.filter((f) => f.branch.sourceId === sourceId);
+    const sx = sourceFits[0].branch.sourceX;
+    if (sx < first - spacing / 2 || sx > last + spacing / 2) continue;
+    const picks = sourceFits.flatMap((f) => f.branch.picks.filter((p) => !f.outlierRows.includes(p.row)));
+    const times = sectionTimes(sampled, sx, picks.map((p) => p.receiverX));
+    picks.forEach((p, i) => out.push({ key: rowKey.get(p.row) ?? '', sourceId, receiverX: p.receiverX, difference: p.time - times[i] }));
+  }
+  return out;
+}
