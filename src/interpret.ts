@@ -15,6 +15,7 @@ import { assignLayers, layerVelocities } from './fit/layers.js';
 import { planSite, type VsFromVpOptions } from './site/fromInterpretation.js';
 import type { PLineCheck } from './site/pLineCheck.js';
 import { assessSite, type SiteAssessment, type SiteOptions, type VsLayer } from './site/siteAssessment.js';
+import { pushAll } from './core/extent.js';
 
 export const VERSION = '0.5.1';
 
@@ -66,7 +67,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
 
   const spacing = receiverSpacing(table);
   const { fits, warnings: fitWarnings, statics } = fitLine(branches, options, table.file, spacing, wave);
-  log.items.push(...fitWarnings);
+  pushAll(log.items, fitWarnings);
   history.push({
     step: 'segmented_regression',
     parameters: { statics, criterion: 'BIC', max_segments: options.maxSegments ?? 4, direct_through_origin: options.directThroughOrigin ?? false, fixed_segments: options.segments ?? {}, fixed_breakpoints_m: Object.fromEntries(Object.entries(options.breakpoints ?? {}).map(([k, v]) => [k, v.map((x) => Number(x.toFixed(3)))])), outlier_rule: 'modified z-score > 5' },

@@ -11,6 +11,7 @@ import { pickRecords, type RecordGroup, type RecordsPickOptions } from '../picki
 import { commandHelp } from './help.js';
 import { lengthUnitOption, listOption, numberOption, parse, readInput, waveOption } from './args.js';
 import { checkOutputPaths, type CliIo } from './io.js';
+import { minOf, maxOf } from '../core/extent.js';
 
 /** Options that place and pick shot records, shared by pick and interpret. */
 export const GEOMETRY_OPTIONS = {
@@ -201,7 +202,7 @@ export function recordsCommand(args: string[], io: CliIo): number {
       delay_s: [...new Set(t.map((tr) => tr.delay))],
       units: record.units,
       source_x_m: sources,
-      receiver_x_m: receivers.length > 0 ? { first: Math.min(...receivers), last: Math.max(...receivers), count: receivers.length } : null,
+      receiver_x_m: receivers.length > 0 ? { first: minOf(receivers), last: maxOf(receivers), count: receivers.length } : null,
       receivers_without_location: t.filter((tr) => tr.receiverLocation === undefined && tr.receiverStation === undefined).map((tr) => tr.index),
       dead_traces: t.filter((tr) => tr.dead).map((tr) => tr.index),
       stack: [...new Set(t.map((tr) => tr.stack).filter((v) => v !== undefined))],

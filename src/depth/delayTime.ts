@@ -1,5 +1,6 @@
 import type { DelayProfile } from './delayProfile.js';
 import type { HeadCurve } from './headWaves.js';
+import { skyline, skylineAdd, skylineCholesky, skylineInverseDiagonal, skylineSolve } from './skylineCholesky.js';
 
 /** Weight of the rows tying a source's delay to the receiver delays at its position. */
 const TIE_WEIGHT = 30;
@@ -11,8 +12,10 @@ const TIE_WEIGHT = 30;
  * bᵣ per receiver and one refractor velocity V, solved by least squares. The constant
  * that could pass between source and receiver delays is fixed by tying each source inside the
  * spread to the receiver delay at its position (interpolated); with no source inside, by equal
- * mean source and receiver delays; solved by Cholesky factorisation. Standard errors come from
- * the covariance σ²(AᵀA)⁻¹. Only
+ * mean source and receiver delays; solved by a Cholesky factorisation in skyline storage (the
+ * unknowns in order along the line make the normal matrix banded: time and memory grow with the
+ * line length, not its square or cube). Standard errors come from the covariance σ²(AᵀA)⁻¹, its
+ * diagonal by Takahashi's recurrence on the same envelope. Only
  * receivers recorded from both directions get a delay: from one direction its delay and the
  * velocity trade off.
  *
@@ -21,10 +24,25 @@ const TIE_WEIGHT = 30;
  * @returns receiver delays and the refractor velocity, or undefined with fewer observations than unknowns
  */
 export function delayTime(curves: HeadCurve[], refractor: number, refractorVelocity?: { velocity: number; se: number }, errors = true): DelayProfile | undefined {
-  const sources = [...new Set(curves.map((c) => c.sourceId))];
-  const receivers = [...new Set(curves.flatMap((c) => c.xs))].sort((a, b) => a - b);
-  const sourceIndex = new Map(sources.map((s, i) => [s, i]));
-  const receiverIndex = new Map(receivers.map((x, i) => [x, sources.length + i]));
+  const sourceXs = new Map<string, number>();
+  for (const c of curves) if (!sourceXs.has(c.sourceId)) sourceXs.set(c.sourceId, c.sourceX);
+  const sources = [...sourceXs.keys()];
+  const receiverSet = new Set<number>();
+  for (const c of curves) for (const x of c.xs) receiverSet.add(x);
+  const receivers = [...receiverSet].sort((a, b) => a - b);
+  // Unknowns in order along the line (sources among the receivers, the slowness last): each pick
+  // ties a source to receivers within its spread, so the normal matrix is banded (plus one full
+  // last row and column for a free slowness) and its skyline factor costs O(n b²), not O(n³).
+  const order = [
+    ...sources.map((id, i) => ({ x: sourceXs.get(id)!, source: i })),
+    ...receivers.map((x, i) => ({ x, source: -1 - i })),
+  ].sort((a, b) => a.x - b.x || a.source - b.source);
+  const sourceIndex = new Map<string, number>();
+  const receiverIndex = new Map<number, number>();
+  order.forEach((u, k) => {
+    if (u.source >= 0) sourceIndex.set(sources[u.source], k);
+    else receiverIndex.set(receivers[-1 - u.source], k);
+  });
   // With the refractor velocity given, the slowness is not an unknown: each receiver's delay then
   // follows from its own picks even where it is recorded from one direction only.
   const fixed = refractorVelocity !== undefined;
@@ -32,21 +50,29 @@ export function delayTime(curves: HeadCurve[], refractor: number, refractorVeloc
   const slownessIndex = fixed ? -1 : unknowns - 1;
   const rows: { entries: [number, number][]; value: number; weight: number }[] = [];
   for (const c of curves) {
-    c.xs.forEach((x, i) => {
+    const s = sourceIndex.get(c.sourceId)!;
+    for (let i = 0; i < c.xs.length; i++) {
+      const x = c.xs[i];
       const distance = Math.abs(x - c.sourceX);
       rows.push(fixed
-        ? { entries: [[sourceIndex.get(c.sourceId)!, 1], [receiverIndex.get(x)!, 1]], value: c.times[i] - distance / refractorVelocity.velocity, weight: 1 }
-        : { entries: [[sourceIndex.get(c.sourceId)!, 1], [receiverIndex.get(x)!, 1], [slownessIndex, distance]], value: c.times[i], weight: 1 });
-    });
+        ? { entries: [[s, 1], [receiverIndex.get(x)!, 1]], value: c.times[i] - distance / refractorVelocity.velocity, weight: 1 }
+        : { entries: [[s, 1], [receiverIndex.get(x)!, 1], [slownessIndex, distance]], value: c.times[i], weight: 1 });
+    }
   }
   const observations = rows.length;
   if (observations < unknowns + 2) return undefined;
-  const sourceXs = new Map(curves.map((c) => [c.sourceId, c.sourceX]));
   let tied = 0;
   for (const [id, sx] of sourceXs) {
     if (sx < receivers[0] || sx > receivers[receivers.length - 1]) continue;
-    let k = 0;
-    while (k < receivers.length - 1 && receivers[k + 1] < sx) k++;
+    // The receivers either side of the source (binary search: the last one west of it).
+    let below = 0;
+    let above = receivers.length;
+    while (below < above) {
+      const mid = (below + above) >> 1;
+      if (receivers[mid] < sx) below = mid + 1;
+      else above = mid;
+    }
+    const k = Math.max(0, below - 1);
     const a = receivers[k];
     const b = receivers[Math.min(receivers.length - 1, k + 1)];
     const t = b === a ? 0 : (sx - a) / (b - a);
@@ -55,49 +81,68 @@ export function delayTime(curves: HeadCurve[], refractor: number, refractorVeloc
     rows.push({ entries, value: 0, weight: TIE_WEIGHT });
     tied++;
   }
-  if (tied === 0) {
-    const entries: [number, number][] = [
-      ...sources.map((_, i) => [i, 1 / sources.length] as [number, number]),
-      ...receivers.map((_, i) => [sources.length + i, -1 / receivers.length] as [number, number]),
-    ];
-    rows.push({ entries, value: 0, weight: TIE_WEIGHT });
+  // With no source inside the spread the gauge is equal mean source and receiver delays. That
+  // constraint touches every unknown (a full row), so it is imposed afterwards: the picks leave
+  // exactly one direction free (every source delay +c, every receiver delay −c), pinned here by
+  // the first receiver's delay and then moved along to meet the gauge.
+  const pinned = tied === 0 ? receiverIndex.get(receivers[0])! : -1;
+  if (pinned >= 0) rows.push({ entries: [[pinned, 1]], value: 0, weight: 1 });
+
+  // Normal equations in skyline storage.
+  const first = new Int32Array(unknowns);
+  for (let i = 0; i < unknowns; i++) first[i] = i;
+  for (const row of rows) {
+    let low = unknowns;
+    for (const [i] of row.entries) low = Math.min(low, i);
+    for (const [i] of row.entries) if (low < first[i]) first[i] = low;
   }
-  // Normal equations in plain arrays (each pick touches three unknowns).
-  const plain = new Float64Array(unknowns * unknowns);
-  const rhsPlain = new Float64Array(unknowns);
+  const normal = skyline(first);
+  const rhs = new Float64Array(unknowns);
   for (const row of rows) {
     const w = row.weight * row.weight;
     for (const [i, a] of row.entries) {
-      rhsPlain[i] += w * a * row.value;
-      for (const [j, b] of row.entries) plain[i * unknowns + j] += w * a * b;
+      rhs[i] += w * a * row.value;
+      for (const [j, b] of row.entries) if (j <= i) skylineAdd(normal, i, j, w * a * b);
     }
   }
-  // Sums taken in different orders leave the two triangles a rounding apart; make them equal.
-  for (let i = 0; i < unknowns; i++) {
-    for (let j = 0; j < i; j++) {
-      const mean = (plain[i * unknowns + j] + plain[j * unknowns + i]) / 2;
-      plain[i * unknowns + j] = mean;
-      plain[j * unknowns + i] = mean;
-    }
-  }
-  let lower = choleskyFactor(plain, unknowns);
+  let lower = skylineCholesky(normal);
   if (lower === undefined) {
     // A part of the line tied to no source: a faint pull of every delay towards zero fixes its constant.
     let trace = 0;
-    for (let i = 0; i < unknowns; i++) trace += plain[i * unknowns + i];
-    for (let i = 0; i < unknowns; i++) plain[i * unknowns + i] += (1e-9 * trace) / unknowns;
-    lower = choleskyFactor(plain, unknowns);
+    for (let i = 0; i < unknowns; i++) trace += normal.values[normal.start[i] + i - first[i]];
+    for (let i = 0; i < unknowns; i++) normal.values[normal.start[i] + i - first[i]] += (1e-9 * trace) / unknowns;
+    lower = skylineCholesky(normal);
     if (lower === undefined) return undefined;
   }
-  const solution = choleskySolve(lower, unknowns, rhsPlain);
+  const solution = skylineSolve(lower, rhs);
+  let inverseDiagonal: Float64Array | number[] = errors ? skylineInverseDiagonal(lower) : new Array(unknowns).fill(NaN);
+  if (pinned >= 0) {
+    // g·x = mean source delay − mean receiver delay; v = (+1 sources, −1 receivers): g·v = 2.
+    const g = new Float64Array(unknowns);
+    const v = new Float64Array(unknowns);
+    for (const k of sourceIndex.values()) { g[k] = 1 / sources.length; v[k] = 1; }
+    for (const k of receiverIndex.values()) { g[k] = -1 / receivers.length; v[k] = -1; }
+    let gx = 0;
+    for (let i = 0; i < unknowns; i++) gx += g[i] * solution[i];
+    for (let i = 0; i < unknowns; i++) solution[i] -= (gx / 2) * v[i];
+    if (errors) {
+      // Covariance in the gauge: P C Pᵀ with P = I − v gᵀ / (g·v), C that of the pinned system.
+      const cg = skylineSolve(lower, g);
+      let gcg = 0;
+      for (let i = 0; i < unknowns; i++) gcg += g[i] * cg[i];
+      const projected = new Float64Array(unknowns);
+      for (let i = 0; i < unknowns; i++) projected[i] = inverseDiagonal[i] - v[i] * cg[i] + (v[i] * v[i] * gcg) / 4;
+      inverseDiagonal = projected;
+    }
+  }
   let rss = 0;
   for (let r = 0; r < observations; r++) {
     const row = rows[r];
-    const fitted = row.entries.reduce((a, [i, v]) => a + v * solution[i], 0);
+    let fitted = 0;
+    for (const [i, v] of row.entries) fitted += v * solution[i];
     rss += (row.value - fitted) ** 2;
   }
   const variance = rss / Math.max(1, observations - unknowns + tied);
-  const inverseDiagonal = errors ? choleskyInverseDiagonal(lower, unknowns) : new Array(unknowns).fill(NaN);
   const slowness = fixed ? 1 / refractorVelocity.velocity : solution[slownessIndex];
   const slownessSe = fixed ? refractorVelocity.se / refractorVelocity.velocity ** 2 : Math.sqrt(Math.max(0, inverseDiagonal[slownessIndex] * variance));
   const counts = new Map<number, number>();
@@ -132,65 +177,4 @@ export function delayTime(curves: HeadCurve[], refractor: number, refractorVeloc
       one_direction_receivers: receivers.length - reversedReceivers.length,
     },
   };
-}
-
-/**
- * Cholesky factor L of a symmetric positive-definite matrix A = L Lᵀ (row-major, n × n), by the
- * Cholesky-Banachiewicz recurrence; undefined when A is not positive definite. Written out on
- * typed arrays: the normal matrix of a line has a hundred or more unknowns and is factored for
- * every refractor of every interpretation.
- */
-function choleskyFactor(a: Float64Array, n: number): Float64Array | undefined {
-  const l = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j <= i; j++) {
-      let sum = a[i * n + j];
-      for (let k = 0; k < j; k++) sum -= l[i * n + k] * l[j * n + k];
-      if (i === j) {
-        if (!(sum > 0)) return undefined;
-        l[i * n + i] = Math.sqrt(sum);
-      } else {
-        l[i * n + j] = sum / l[j * n + j];
-      }
-    }
-  }
-  return l;
-}
-
-/** Solves L Lᵀ x = b by forward and back substitution. */
-function choleskySolve(l: Float64Array, n: number, b: Float64Array): number[] {
-  const y = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    let sum = b[i];
-    for (let k = 0; k < i; k++) sum -= l[i * n + k] * y[k];
-    y[i] = sum / l[i * n + i];
-  }
-  const x = new Array(n).fill(0);
-  for (let i = n - 1; i >= 0; i--) {
-    let sum = y[i];
-    for (let k = i + 1; k < n; k++) sum -= l[k * n + i] * x[k];
-    x[i] = sum / l[i * n + i];
-  }
-  return x;
-}
-
-/**
- * Diagonal of (L Lᵀ)⁻¹ from the Cholesky factor L: (A⁻¹)ᵢᵢ = Σₖ ((L⁻¹)ₖᵢ)², with L⁻¹ by forward
- * substitution, column by column.
- */
-function choleskyInverseDiagonal(l: Float64Array, n: number): number[] {
-  const diagonal = new Array(n).fill(0);
-  const column = new Float64Array(n);
-  for (let j = 0; j < n; j++) {
-    column.fill(0);
-    column[j] = 1 / l[j * n + j];
-    diagonal[j] += column[j] * column[j];
-    for (let k = j + 1; k < n; k++) {
-      let sum = 0;
-      for (let m = j; m < k; m++) sum -= l[k * n + m] * column[m];
-      column[k] = sum / l[k * n + k];
-      diagonal[j] += column[k] * column[k];
-    }
-  }
-  return diagonal;
 }

@@ -9,6 +9,7 @@ import { headCurves } from './headWaves.js';
 import { hiddenLayerLimit, type HiddenLayerLimit } from './hiddenLayer.js';
 import { plusMinus } from './plusMinus.js';
 import { reversedPair } from './reversedPair.js';
+import { maxOf } from '../core/extent.js';
 
 /**
  * The depth of an overburden refractor just beyond the ends of its profile (within `reach`
@@ -168,7 +169,7 @@ function disagreements(n: number, byMethod: Record<string, RefractorPoint[]>, wa
         return q !== undefined && Math.abs(p.depth - q.depth) > Math.max(DISAGREE_METRES, DISAGREE_FRACTION * Math.max(p.depth, q.depth));
       });
       if (apart.length === 0) continue;
-      const worst = Math.max(...apart.map((p) => Math.abs(p.depth - bySecond.get(p.x)!.depth)));
+      const worst = maxOf(apart.map((p) => Math.abs(p.depth - bySecond.get(p.x)!.depth)));
       warnings.add('methods-disagree',
         `refractor ${n}: ${methods[i]} and ${methods[j]} depths differ by more than ${DISAGREE_METRES} m or ${DISAGREE_FRACTION * 100} % at ${apart.length} geophone${apart.length > 1 ? 's' : ''} (x = ${apart.slice(0, 6).map((p) => p.x).join(', ')}${apart.length > 6 ? ', ...' : ''} m), by up to ${worst.toFixed(2)} m: the refractor may be irregular there, or the picks inconsistent; treat those depths with care`,
         { layer: n + 1 });

@@ -6,6 +6,7 @@ import { branchName, fitBranches, type BranchChoices } from './fitBranches.js';
 import { assignLayers, layerVelocities } from './layers.js';
 import { MIN_VELOCITY_CONTRAST } from './segmentedRegression.js';
 import { staticsCorrectedFits } from './statics.js';
+import { maxOf, pushAll } from '../core/extent.js';
 
 /** Warnings that show a fit took bends of the branches for layers (see staticsCorrectedFits). */
 const IRREGULAR = new Set(['apparent-velocity-decrease', 'layer-consistency', 'unreversed-layer', 'velocity-inversion', 'layer-merged']);
@@ -73,7 +74,7 @@ export function fitLine(branches: Branch[], options: BranchChoices, file: string
       Object.assign(caps, trialCaps);
       const kept = attemptLog.items.filter((w) => w.code === 'layer-dropped' || w.code === 'layer-merged' || (w.code === 'velocity-inversion' && w.message.includes('one segment fewer')));
       attemptLog.items.length = 0;
-      attemptLog.items.push(...kept, ...trialLog.items);
+      pushAll(attemptLog.items, [...kept, ...trialLog.items]);
       fits = merged;
       const names = showing.map((f) => branchName(f.branch)).join(', ');
       if (lone) {
@@ -119,7 +120,7 @@ export function fitLine(branches: Branch[], options: BranchChoices, file: string
 function loneDeepestBranches(fits: BranchFit[], spacing: number): { fit: BranchFit; seenBeyond: string }[] {
   const near = fits.filter((f) => startsAtSource(f.branch, spacing));
   if (near.length < 2) return [];
-  const deepest = Math.max(...near.map((f) => f.segments.length));
+  const deepest = maxOf(near.map((f) => f.segments.length));
   const members = near.filter((f) => f.segments.length === deepest);
   if (deepest < 2 || members.length !== 1 || members[0].chosenBy === 'user') return [];
   const fit = members[0];

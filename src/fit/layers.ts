@@ -5,6 +5,7 @@ import { startsAtSource } from './branches.js';
 import { solveInterface, type PlaneInterface } from './dippingLayers.js';
 import type { BranchFit, Layer, Segment } from '../core/types.js';
 import type { WarningLog } from '../core/warnings.js';
+import { maxOf, pushAll } from '../core/extent.js';
 
 /**
  * A segment whose apparent velocity differs from the median of its layer by more than this factor
@@ -49,7 +50,7 @@ export function assignLayers(fits: BranchFit[], spacing: number, warnings: Warni
     warnings.add('no-direct-wave',
       `no branch starting at its source has a direct-wave segment: every first segment starts well after time zero (intercepts ${lacking.map((f) => (f.segments[0].intercept * 1e3).toFixed(1)).join(', ')} ms), so the top-layer velocity is unknown and no depth can be computed. Pick geophones closer to the sources (at least three before the crossover distance)`,
       { layer: 1 });
-    return Math.max(...fits.map((f) => f.segments.length)) + 1;
+    return maxOf(fits.map((f) => f.segments.length)) + 1;
   }
   for (const f of lacking) {
     for (const segment of f.segments) segment.layer += 1;
@@ -57,7 +58,7 @@ export function assignLayers(fits: BranchFit[], spacing: number, warnings: Warni
       `${f.branch.sourceId}:${f.branch.side} branch starts with a segment of intercept ${(f.segments[0].intercept * 1e3).toFixed(1)} ms, not a direct wave (too few picks before the crossover); its segments are taken as refracted from the first`);
   }
   const base = reference.length > 0 ? reference : fits;
-  let layerCount = Math.max(...base.map((f) => f.segments.length));
+  let layerCount = maxOf(base.map((f) => f.segments.length));
   // Up-dip and down-dip apparent velocities differ, so each side is matched against its own side.
   const medianSlowness = (members: BranchFit[], k: number) =>
     median(members.flatMap((f) => f.segments.filter((s) => s.layer === k).map((s) => s.slowness)));
@@ -75,7 +76,7 @@ export function assignLayers(fits: BranchFit[], spacing: number, warnings: Warni
     }
     const layers = matchInOrder(fit.segments.map((s) => s.slowness), layerSlowness, known);
     fit.segments.forEach((s, i) => { s.layer = layers[i]; });
-    layerCount = Math.max(layerCount, ...layers);
+    layerCount = Math.max(layerCount, maxOf(layers));
   }
   for (let k = 1; k <= layerCount; k++) {
     for (const side of ['forward', 'reverse'] as const) {
@@ -234,7 +235,7 @@ function recursion(chain: Above[], v1: number, v1Se: number) {
   const params = [v1];
   const ses = [v1Se];
   for (const entry of chain) {
-    if ('slowness' in entry) { params.push(...entry.slowness); ses.push(...entry.slownessSe); }
+    if ('slowness' in entry) { pushAll(params, entry.slowness); pushAll(ses, entry.slownessSe); }
   }
   const at = (p: number[]): PlaneInterface | undefined => {
     const interfaces: PlaneInterface[] = [];

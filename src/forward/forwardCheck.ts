@@ -1,4 +1,5 @@
 import type { BranchFit, Layer, RefractorPoint } from '../core/types.js';
+import { maxOf, minOf } from '../core/extent.js';
 import { sampleSection, sectionTimes } from './sectionTimes.js';
 
 export interface ForwardCheck {
@@ -26,7 +27,7 @@ export function forwardCheck(fits: BranchFit[], layers: Layer[], refractors: { p
     velocities: layers.slice(0, refractors.length + 1).map((l) => l.velocity),
   };
   const all = fits.flatMap((f) => f.branch.picks.map((p) => p.receiverX).concat(f.branch.sourceX));
-  const span: [number, number] = [Math.min(...all) - 2 * spacing, Math.max(...all) + 2 * spacing];
+  const span: [number, number] = [minOf(all) - 2 * spacing, maxOf(all) + 2 * spacing];
   // Refractors sampled at half the geophone spacing (at most 400 samples): the check is against
   // picks a tenth of a millisecond apart, and the least time over samples errs far less.
   const step = Math.max(spacing / 2, (span[1] - span[0]) / 400);
@@ -40,8 +41,8 @@ export function forwardCheck(fits: BranchFit[], layers: Layer[], refractors: { p
     bySource.get(f.branch.sourceId)!.push(f);
   }
   const receiverXs = fits.flatMap((f) => f.branch.picks.map((p) => p.receiverX));
-  const first = Math.min(...receiverXs);
-  const last = Math.max(...receiverXs);
+  const first = minOf(receiverXs);
+  const last = maxOf(receiverXs);
   for (const [sourceId, sourceFits] of bySource) {
     // A source off the ends sends its rays down where the section is not known (beyond the
     // geophones the refractors are only held flat), so it is left out of the check.

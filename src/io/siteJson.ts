@@ -1,5 +1,6 @@
 import type { SiteAssessment, VsLayer } from '../site/siteAssessment.js';
 import { round } from './numbers.js';
+import { minOf, maxOf } from '../core/extent.js';
 
 /** The per-layer shear-wave velocity profile of the site block, in m/s. */
 export function vsProfileJson(layers: VsLayer[]): Record<string, unknown>[] {
@@ -34,8 +35,8 @@ export function siteJson(site: SiteAssessment): Record<string, unknown> {
     deepest_known_m: round(site.deepestKnown, 2),
     vs_profile: vsProfileJson(site.vsProfile),
     along_line: site.alongLine.map((a) => ({ x_m: round(a.x, 3), vs30_mps: round(a.vs30, 1) })),
-    along_line_min_mps: round(Math.min(...vsAlong), 1),
-    along_line_max_mps: round(Math.max(...vsAlong), 1),
+    along_line_min_mps: round(minOf(vsAlong), 1),
+    along_line_max_mps: round(maxOf(vsAlong), 1),
     classes: site.classes.map((c) => ({
       standard: c.standard,
       table: c.table,

@@ -2,6 +2,7 @@ import { linearAt } from '../core/interpolate.js';
 import { choleskyFactor, choleskyInverse, choleskySolve } from './cholesky.js';
 import { elevationIndex, gradientIndex, packParameters, parameterCount, sampleNodeSection, unpackParameters, velocityIndex, type NodeSection } from './nodeSection.js';
 import { sectionPaths, type Shot, type SparseRow } from './sectionPaths.js';
+import { minOf, maxOf } from '../core/extent.js';
 
 /** One first-break pick for the inversion, in SI units (metres, elevations up, seconds). */
 export interface InversionPick {
@@ -113,8 +114,8 @@ export function layeredInversion(picks: InversionPick[], start: InversionStart, 
   const allX = picks.flatMap((p) => [p.sourceX, p.receiverX]);
   const first = start.receiverXs[0];
   const last = start.receiverXs[start.receiverXs.length - 1];
-  const nodeXs = nodePositions(first, last, Math.min(...allX), Math.max(...allX), nodeSpacing);
-  const span: [number, number] = [Math.min(...allX) - 2 * spacing, Math.max(...allX) + 2 * spacing];
+  const nodeXs = nodePositions(first, last, minOf(allX), maxOf(allX), nodeSpacing);
+  const span: [number, number] = [minOf(allX) - 2 * spacing, maxOf(allX) + 2 * spacing];
   const step = Math.max(spacing / 2, (span[1] - span[0]) / 600);
   const initial: NodeSection = {
     ground: start.ground,

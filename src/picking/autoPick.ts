@@ -2,6 +2,7 @@ import { median } from '../core/stats.js';
 import { segmentedRegression } from '../fit/segmentedRegression.js';
 import { aicOnset } from './aic.js';
 import { staLtaTriggerOn } from './staLta.js';
+import { minOf } from '../core/extent.js';
 
 /** A trace to pick: samples, time axis, and its offset from the source. */
 export interface PickTrace {
@@ -83,7 +84,7 @@ export function checkRecord(traces: PickTrace[], initial: TracePick[], repick: R
     const fit = travelTimeFit(x, y);
     if (fit === undefined) continue;
     // First arrivals follow the lower envelope of the segment lines (each line wins beyond its crossover).
-    const predict = (offset: number) => Math.min(...fit.segments.map((segment) => segment.intercept + segment.slope * offset));
+    const predict = (offset: number) => minOf(fit.segments.map((segment) => segment.intercept + segment.slope * offset));
     const tolerance = Math.max(4 * fit.residualSd, 3 * dt, 1e-3);
     // Traces with no onset of their own are tried at the predicted time too.
     const candidates = [

@@ -2,6 +2,7 @@ import { fromMetres, formatLength, formatVelocity, velocityLabel, type LengthUni
 import type { SiteAssessment, VsLayer } from '../site/siteAssessment.js';
 import { plusMinus, table } from './format.js';
 import { displayText } from './unitText.js';
+import { maxOf, minOf, pushAll } from '../core/extent.js';
 
 const BASIS: Record<VsLayer['basis'], string> = {
   measured: 'measured',
@@ -39,10 +40,10 @@ export function siteSummary(site: SiteAssessment, unit: LengthUnit): string[] {
   } else {
     out.push(`  Vs30 ${formatVelocity(site.vs30, unit)}; no uncertainty was given (no standard error of any velocity or depth), so no range and no class probabilities are computed`);
   }
-  if (along.length > 1) out.push(`  along the line: ${formatVelocity([Math.min(...along), Math.max(...along)], unit, 0, ' to ')} at ${along.length} stations`);
+  if (along.length > 1) out.push(`  along the line: ${formatVelocity([minOf(along), maxOf(along)], unit, 0, ' to ')} at ${along.length} stations`);
   if (site.extrapolated > 0) out.push(`  ${formatLength(site.extrapolated, unit, 1)} of the top ${formatLength(30, unit, 0)} are extrapolated (the deepest velocity extended)`);
-  out.push(...vsProfileTable(site.vsProfile, unit));
-  out.push(...table(
+  pushAll(out, vsProfileTable(site.vsProfile, unit));
+  pushAll(out, table(
     ['standard', 'table', `v̄s (${label})`, 'class', 'probability', 'note'],
     site.classes.map((c) => [
       c.standard,

@@ -6,6 +6,7 @@ import { plusMinus, table } from './format.js';
 import type { PLineCheck } from '../site/pLineCheck.js';
 import { siteSummary, vsProfileTable } from './siteSummary.js';
 import { displayText } from './unitText.js';
+import { maxOf, pushAll } from '../core/extent.js';
 
 /** "1 branch", "2 branches". */
 export function count(n: number, singular: string, plural = `${singular}s`): string {
@@ -29,7 +30,7 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
   if (result.records?.length) out.push(`Picks: ${result.wave === 'S' ? 'S-wave onsets (the shear arrival after the P)' : 'first breaks'} picked automatically from ${result.records.length} shot record${result.records.length > 1 ? 's' : ''}`);
   out.push('');
   out.push(`Layers (velocity ± standard error; true velocity and dip from forward and reverse branches)`);
-  out.push(...table(
+  pushAll(out, table(
     ['layer', `velocity (${vLabel})`, 'dip of top (deg)', 'seen by'],
     result.layers.map((l) => [
       String(l.index),
@@ -50,7 +51,7 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
     } else {
       const others = ['plus-minus', 'GRM', 'delay-time'].filter((m) => (r.byMethod[m] ?? []).length > 0);
       const at = (m: string, x: number) => r.byMethod[m]?.find((p) => p.x === x);
-      out.push(...table(
+      pushAll(out, table(
         ['x (' + unit + ')', `depth (${unit})`, `elevation (${unit})`, 'method', ...others.map((m) => `${m} (${unit})`)],
         r.points.map((p, i) => [
           len(p.x).toFixed(2), plusMinus(len(p.depth), len(p.depthSe), 2), len(p.elev).toFixed(2), r.pointMethods[i],
@@ -76,11 +77,11 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
   }
   if (result.reciprocal.length > 0) {
     const bad = result.reciprocal.filter((c) => !c.ok);
-    out.push(`Reciprocal times: ${result.reciprocal.length} pair${result.reciprocal.length > 1 ? 's' : ''} checked, ${bad.length} beyond the ${(result.reciprocal[0].tolerance * 1e3).toFixed(2)} ms tolerance${bad.length > 0 ? `: ${bad.map((c) => `${c.sourceA}-${c.sourceB} ${(c.difference * 1e3).toFixed(2)} ms`).join(', ')}` : ''}; largest difference ${(Math.max(...result.reciprocal.map((c) => c.difference)) * 1e3).toFixed(2)} ms`);
+    out.push(`Reciprocal times: ${result.reciprocal.length} pair${result.reciprocal.length > 1 ? 's' : ''} checked, ${bad.length} beyond the ${(result.reciprocal[0].tolerance * 1e3).toFixed(2)} ms tolerance${bad.length > 0 ? `: ${bad.map((c) => `${c.sourceA}-${c.sourceB} ${(c.difference * 1e3).toFixed(2)} ms`).join(', ')}` : ''}; largest difference ${(maxOf(result.reciprocal.map((c) => c.difference)) * 1e3).toFixed(2)} ms`);
     out.push('');
   }
-  if (result.pLineCheck) out.push(...pLineSummary(result.pLineCheck, unit));
-  if (result.site) out.push(...siteSummary(result.site, unit));
+  if (result.pLineCheck) pushAll(out, pLineSummary(result.pLineCheck, unit));
+  if (result.site) pushAll(out, siteSummary(result.site, unit));
   else if (result.siteNotClassified) {
     out.push('Site class: not estimated', `  ${displayText(result.siteNotClassified.reason, unit)}.`, ...vsProfileTable(result.siteNotClassified.vsLayers, unit), '');
   } else if (result.wave === 'P') out.push('Site class: not computed. Vs cannot be had from Vp alone: give --poisson or --vp-vs to estimate it, or interpret an S-wave line.', '');

@@ -5,6 +5,7 @@ import { depthAt } from '../depth/delayProfile.js';
 import type { Interpretation, Layer, Refractor } from '../core/types.js';
 import type { SiteInput, SiteStation, VsLayer } from './siteAssessment.js';
 import { poissonFromRatio, vpVsRatio } from './vsFromVp.js';
+import { minOf, maxOf } from '../core/extent.js';
 
 /** Half-width of the range a Poisson's ratio is drawn from uniformly in the Monte Carlo, by default. */
 export const POISSON_HALF_WIDTH = 0.05;
@@ -158,8 +159,8 @@ function poissonList(options: VsFromVpOptions, layers: Layer[], file: string): n
 /** Stations at receiver positions inside every refractor's coverage (or at the points themselves). */
 function stationsAlong(refractors: Refractor[], receiverXs: number[]): SiteStation[] {
   if (refractors.length === 0) return [{ x: receiverXs[0] ?? 0, depths: [], depthSes: [] }];
-  const lo = Math.max(...refractors.map((r) => Math.min(...r.points.map((p) => p.x))));
-  const hi = Math.min(...refractors.map((r) => Math.max(...r.points.map((p) => p.x))));
+  const lo = maxOf(refractors.map((r) => minOf(r.points.map((p) => p.x))));
+  const hi = minOf(refractors.map((r) => maxOf(r.points.map((p) => p.x))));
   if (refractors.some((r) => r.points.length === 0) || !(hi >= lo)) return [];
   const xs = [...new Set(receiverXs.filter((x) => x >= lo && x <= hi))].sort((a, b) => a - b);
   const positions = xs.length > 0 ? xs : [lo];

@@ -1,4 +1,5 @@
 import { escapeHtml } from './escape.js';
+import { minOf, maxOf } from '../../core/extent.js';
 
 /** A JSON value at a dotted path ("layers.0.velocity_mps"), or undefined where there is none. */
 export function valueAt(document: unknown, path: string): unknown {
@@ -50,14 +51,14 @@ export class Figures {
   /** The least or greatest value of `field` over the array at `path`. */
   agg(path: string, field: string, how: 'min' | 'max', digits: number): string {
     const values = ((this.get(path) as Record<string, unknown>[] | undefined) ?? []).map((o) => o[field]).filter((v): v is number => typeof v === 'number' && Number.isFinite(v));
-    const value = values.length === 0 ? undefined : how === 'min' ? Math.min(...values) : Math.max(...values);
+    const value = values.length === 0 ? undefined : how === 'min' ? minOf(values) : maxOf(values);
     return span(`data-json="${escapeHtml(`${path}.*.${field}`)}" data-agg="${how}"`, value, digits);
   }
 
   /** The least or greatest thickness of a layer along the line (difference of the bounding refractors' depths). */
   thickness(layer: number, how: 'min' | 'max', digits: number): string {
     const values = layerThicknesses(this.document, layer);
-    const value = values.length === 0 ? undefined : how === 'min' ? Math.min(...values) : Math.max(...values);
+    const value = values.length === 0 ? undefined : how === 'min' ? minOf(values) : maxOf(values);
     return span(`data-thickness="${layer}" data-agg="${how}"`, value, digits);
   }
 

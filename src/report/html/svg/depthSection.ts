@@ -2,6 +2,7 @@ import type { RefractorPoint } from '../../../core/types.js';
 import { escapeHtml } from '../escape.js';
 import { frame } from './frame.js';
 import { c } from './ticks.js';
+import { minOf, maxOf } from '../../../core/extent.js';
 
 export interface SectionRefractor {
   index: number;
@@ -46,10 +47,10 @@ export function depthSectionSvg(input: SectionInput, width = 680, height = 330):
     for (const p of r.points) elevs.push(p.elev - p.depthSe, p.elev + p.depthSe);
     for (const points of Object.values(r.byMethod)) for (const p of points) elevs.push(p.elev - p.depthSe);
   }
-  const top = Math.max(...elevs);
-  const bottomElev = Math.min(...elevs);
+  const top = maxOf(elevs);
+  const bottomElev = minOf(elevs);
   const pad = Math.max(1, 0.12 * (top - bottomElev));
-  const f = frame({ width, height, xDomain: [Math.min(...xs), Math.max(...xs)], yDomain: [bottomElev - pad, top + pad * 0.5], xTitle: 'Position along the line (m)', yTitle: 'Elevation (m)' });
+  const f = frame({ width, height, xDomain: [minOf(xs), maxOf(xs)], yDomain: [bottomElev - pad, top + pad * 0.5], xTitle: 'Position along the line (m)', yTitle: 'Elevation (m)' });
   const exaggeration = ((f.bottom - f.top) / (f.yDomain[1] - f.yDomain[0])) / ((f.right - f.left) / (f.xDomain[1] - f.xDomain[0]));
   const parts: string[] = [f.axes];
   const path = (points: { x: number; y: number }[]) => points.map((p, i) => `${i === 0 ? 'M' : 'L'}${c(f.x(p.x))} ${c(f.y(p.y))}`).join('');

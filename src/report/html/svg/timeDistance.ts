@@ -2,6 +2,7 @@ import type { BranchFit } from '../../../core/types.js';
 import { escapeHtml } from '../escape.js';
 import { frame, SERIES_COLOURS } from './frame.js';
 import { c } from './ticks.js';
+import { minOf, maxOf } from '../../../core/extent.js';
 
 /** One source of the time-distance plot, for the legend. */
 export interface SourceSeries {
@@ -22,7 +23,7 @@ export function timeDistanceSvg(fits: BranchFit[], width = 680, height = 380): {
   const colourOf = new Map(series.map((s) => [s.sourceId, s.colour]));
   const xs = fits.flatMap((f) => [f.branch.sourceX, ...f.branch.picks.map((p) => p.receiverX)]);
   const ts = fits.flatMap((f) => f.branch.times.map((t) => t * 1e3));
-  const f = frame({ width, height, xDomain: [Math.min(...xs), Math.max(...xs)], yDomain: [0, Math.max(...ts, 1)], xTitle: 'Position along the line (m)', yTitle: 'First-break time (ms)' });
+  const f = frame({ width, height, xDomain: [minOf(xs), maxOf(xs)], yDomain: [0, Math.max(maxOf(ts), 1)], xTitle: 'Position along the line (m)', yTitle: 'First-break time (ms)' });
   const parts: string[] = [f.axes];
   parts.push('<g class="segments">');
   for (const fit of fits) {
