@@ -3,6 +3,7 @@ import type { PickTrace } from './autoPick.js';
 import { pickPolarityPair, type PairCheck } from './polarityPairs.js';
 import { pickShearRecord } from './pickShearRecord.js';
 import { pickSeg2, placedRows, placeRecord, type PickRow, type PlacedRecord, type RecordPickOptions } from './recordPicks.js';
+import { pushAll } from '../core/extent.js';
 
 /** P left in the difference of a pair, as a fraction of the P of the sum, above which it is not cancelled. */
 export const P_RESIDUAL_LIMIT = 0.5;
@@ -75,7 +76,7 @@ export function pickRecords(records: Seg2Record[], options: RecordsPickOptions =
   const notes: RecordsPicks['notes'] = [];
   for (const group of groups) {
     if (group.length === 1) {
-      rows.push(...placedRows(group[0], pickShearRecord(group[0].traces, options).picks, 'S'));
+      pushAll(rows, placedRows(group[0], pickShearRecord(group[0].traces, options).picks, 'S'));
       continue;
     }
     const same = group.filter((r, k) => k === 0 || correlation(group[0], r) >= 0);
@@ -87,7 +88,7 @@ export function pickRecords(records: Seg2Record[], options: RecordsPickOptions =
       const check: PairCheck = { combined: 'stack', differenceToSum: 0 };
       out.push({ files: group.map((r) => r.record.file), reversed: [], sourceX, check });
       notes.push({ code: 'polarity-pair-same', message: `records ${names(group)} share the source position x = ${sourceX} m and the receivers but have the same S polarity (their difference is weaker than their sum), so the P is not cancelled: they were stacked and picked as one record; if the beam was struck on both sides, check which record is which and the geophone orientation` });
-      rows.push(...placedRows(group[0], result.picks, 'S', group.map((r) => r.sourceId).join('+'), group.map((r) => r.record.file).join(' + ')));
+      pushAll(rows, placedRows(group[0], result.picks, 'S', group.map((r) => r.sourceId).join('+'), group.map((r) => r.record.file).join(' + ')));
       continue;
     }
     const result = pickPolarityPair(mean(same), mean(other), options);
@@ -95,7 +96,7 @@ export function pickRecords(records: Seg2Record[], options: RecordsPickOptions =
     if (result.check.pResidual !== undefined && result.check.pResidual > P_RESIDUAL_LIMIT) {
       notes.push({ code: 'polarity-pair-p-kept', message: `the difference of records ${names(same)} and ${names(other)} (source at x = ${sourceX} m) keeps ${Math.round(result.check.pResidual * 100)} % of the P of their sum: the P is not cancelled, as it is when only the S is reversed (the beam struck on its other side); check the records and the geophone orientation. The S picks were made after the P times of the records` });
     }
-    rows.push(...placedRows(group[0], result.picks, 'S', [...same, ...other].map((r) => r.sourceId).join('-'), `${names(same)} - ${names(other)}`));
+    pushAll(rows, placedRows(group[0], result.picks, 'S', [...same, ...other].map((r) => r.sourceId).join('-'), `${names(same)} - ${names(other)}`));
   }
   return { rows, groups: out, notes };
 }

@@ -1,5 +1,6 @@
 import { checkRecord, localSpikes, pickNear, pickRecord, pickTrace, travelTimeFit, type PickOptions, type PickTrace, type TracePick } from './autoPick.js';
 import { precedesShear, SHEAR_AFTER_P, shearOnset } from './shearOnset.js';
+import { minOf } from '../core/extent.js';
 
 /**
  * The P arrival expected at each trace from the P first breaks of the record: per side, the
@@ -33,7 +34,7 @@ export function pMoveout(traces: PickTrace[], confirmed: TracePick[], raw: Trace
     traces.forEach((t, i) => {
       if (Math.sign(t.offset) !== side) return;
       const x = Math.abs(t.offset);
-      curve[i] = Math.max(0, Math.min(...fit.segments.map((segment) => segment.intercept + segment.slope * x)));
+      curve[i] = Math.max(0, minOf(fit.segments.map((segment) => segment.intercept + segment.slope * x)));
       const own = timeOf(raw[i], i);
       search[i] = x <= reach || own === undefined ? curve[i] : Math.min(curve[i]!, own);
     });
