@@ -1,6 +1,7 @@
 import { escapeHtml } from '../escape.js';
 import { frame } from './frame.js';
 import { c, niceTicks } from './ticks.js';
+import { maxOf, minOf } from '../../../core/extent.js';
 
 /** The part of a hammerline/tomogram@1 document the figure draws. */
 export interface TomogramDocument {
@@ -20,7 +21,7 @@ const BAND_COLOURS = ['#f7f1dc', '#efe0b4', '#e3c98a', '#cfae6a', '#a9a27a', '#7
 export function tomogramSvg(t: TomogramDocument, ground: { x: number; elev: number }[], refractors: { x: number; elev: number }[][], width = 680, height = 330): { svg: string; bands: { low: number; high: number; colour: string }[]; exaggeration: number } {
   const g = t.grid;
   const velocities = g.velocity_mps.filter((v): v is number => v !== null);
-  const scale = niceTicks(Math.min(...velocities), Math.max(...velocities), BAND_COLOURS.length);
+  const scale = niceTicks(minOf(velocities), maxOf(velocities), BAND_COLOURS.length);
   const bands = scale.ticks.slice(0, -1).map((low, i) => ({ low, high: scale.ticks[i + 1], colour: BAND_COLOURS[Math.min(BAND_COLOURS.length - 1, Math.round((i * (BAND_COLOURS.length - 1)) / Math.max(1, scale.ticks.length - 2)))] }));
   const bandOf = (v: number) => Math.min(bands.length - 1, Math.max(0, Math.floor((v - scale.low) / scale.step)));
   const x0 = g.x0_m - g.cell_m / 2;
