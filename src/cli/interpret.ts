@@ -17,6 +17,7 @@ import { GEOMETRY_OPTIONS, isSeg2, pickAll, traceLabeller } from './records.js';
 import type { RecordGroup } from '../picking/pickRecords.js';
 import { round } from '../io/numbers.js';
 import { toMetres } from '../core/units.js';
+import { pushAll } from '../core/extent.js';
 
 /** Options of interpret that choose how a line is interpreted; report accepts the same. */
 export const INTERPRET_OPTIONS = {
@@ -150,7 +151,7 @@ function checkAgainstPLine(result: InterpretationResult, file: string, choices: 
   if (result.wave !== 'S') throw new InputError({ file }, '--p-line compares an S-wave line with a P-wave line; this line is not an S-wave line (use --wave S or a wave column)');
   const log = new WarningLog();
   result.pLineCheck = compareWithPLine(result, choices.pLine, log);
-  result.warnings.push(...log.items);
+  pushAll(result.warnings, log.items);
 }
 
 /** hammerline interpret: first-break tables (one line each) or the SEG-2 records of one line. */

@@ -4,6 +4,7 @@ import { len, si, vel } from '../core/siText.js';
 import { median } from '../core/stats.js';
 import type { Layer } from '../core/types.js';
 import type { WarningLog } from '../core/warnings.js';
+import { minOf } from '../core/extent.js';
 
 /** Vp/Vs of an elastic solid with Poisson's ratio ν ≥ 0 is at least sqrt(2) (Vp/Vs = sqrt((2 − 2ν)/(1 − 2ν))). */
 export const VP_VS_MIN_ELASTIC = Math.SQRT2;
@@ -84,7 +85,7 @@ export function compareWithPLine(sLine: LineLike, pLine: LineLike, warnings?: Wa
     const p = Math.min(layerAt(pDepths, middle), pLayers.length - 1);
     const first = Math.min(layerAt(pDepths, top), pLayers.length - 1);
     const last = bottom === undefined ? pLayers.length - 1 : Math.min(layerAt(pDepths, Math.max(top, bottom - 1e-6)), pLayers.length - 1);
-    const slowestVp = Math.min(...pLayers.slice(first, last + 1).map((l) => l.velocity));
+    const slowestVp = minOf(pLayers.slice(first, last + 1).map((l) => l.velocity));
     if (s.velocity >= slowestVp) {
       throw new InputError({ file: sLine.file },
         `layer ${s.index} (${bottom === undefined ? `below ${top.toFixed(1)} m` : `${top.toFixed(1)} to ${bottom.toFixed(1)} m`}) has Vs ${Math.round(s.velocity)} m/s, not slower than Vp ${Math.round(slowestVp)} m/s at the same depth on the P line ${pLine.file}; shear waves are always slower than P waves in the same material, so check that the files are not swapped and that the S picks are shear arrivals`);
