@@ -132,3 +132,19 @@ describe('hammerline report from SEG-2 records', () => {
     expect((section(html, 'history').match(/<td>SEG-2 shot record<\/td>/g) ?? []).length).toBe(7);
   });
 });
+
+describe('hammerline report with --p-line', () => {
+  it('report --p-line shows the S layers checked against the P line, every number as interpret() gives it', () => {
+    const P_LINE = 'survey-examples/alluvial-terrace/first-breaks.csv';
+    const run = runReport(['report', SH, '--p-line', P_LINE, '-o', 'r.html']);
+    expect(run.code, run.error?.message).toBe(0);
+    const html = run.written['r.html'];
+    expect(section(html, 'site')).toMatch(/Shear-wave velocities checked against the P-wave line/);
+    const paths = markedNumbers(section(html, 'site')).map((n) => n.path);
+    // Three S layers over the terrace (survey-examples/README.md), each with Vs, Vp and their ratio.
+    for (const i of [0, 1, 2]) for (const f of ['vs_mps', 'vp_mps', 'vp_vs']) expect(paths).toContain(`p_line_check.layers.${i}.${f}`);
+    const values = Object.fromEntries(markedNumbers(section(html, 'site')).filter((n) => n.path?.startsWith('p_line_check.')).map((n) => [n.path!, n.value!]));
+    // Fact of the trade (common practice): Vs < Vp in the same material, so every ratio is above 1.
+    for (const i of [0, 1, 2]) expect(values[`p_line_check.layers.${i}.vp_vs`]).toBeGreaterThan(1.414);
+  });
+});

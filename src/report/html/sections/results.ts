@@ -103,7 +103,7 @@ export function siteSection(input: ReportInput, fig: Figures): string {
 </tbody></table>
 <table class="data"><thead><tr><th>Standard</th><th>Table</th><th>v̄s (m/s)</th><th>Averaged over (m)</th><th>Class</th><th>Probability</th><th>Remarks</th></tr></thead><tbody>${rows}</tbody></table>
 <p class="note">v̄s is averaged over each standard’s own depth (30 m, or 100 ft = 30.48 m for ASCE 7). Probability is the share of Monte Carlo draws (velocities and depths drawn from their standard errors, a station drawn along the line) that give the class shown. A value on a class bound is given to the softer class.</p>
-${notes ? `<ul class="qualifiers">${notes}</ul>` : ''}</section>`;
+${notes ? `<ul class="qualifiers">${notes}</ul>` : ''}${pLineCheck(fig)}</section>`;
 }
 
 /** Figure 3, when a tomogram was made: the velocity grid, its contours, the layered refractors for comparison. */
@@ -117,4 +117,16 @@ function tomogramFigure(input: ReportInput, fig: Figures): string {
   const table = t.contours.length === 0 ? '' : `<table class="data"><thead><tr><th>Contour (m/s)</th><th>Contour depth below ground (m)</th><th>Layered depth below ground at the same geophones (m)</th></tr></thead><tbody>${rows}</tbody></table>`;
   return `<figure class="tomogram">${svg}<figcaption><span class="legend">${scale}<span class="key">m/s</span><span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#111" stroke-width="1.4"/></svg>velocity contour</span><span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#111" stroke-width="1" stroke-dasharray="4 2"/></svg>layered refractor (recommended)</span></span>
 Figure 3. First-arrival traveltime tomogram of the same first breaks, a second opinion beside the layered section and not mixed into it: ${fig.text('tomogram.start_model')}; ${fig.num(`tomogram.iterations.${last}.iteration`, 0)} iterations, RMS misfit ${fig.num(`tomogram.iterations.${last}.rms_ms`, 2)} ms against a pick noise of ${fig.num('tomogram.pick_noise_ms', 2)} ms. Cells no first break samples are blank. Vertical exaggeration ${exaggeration.toFixed(1)} : 1. Contours are drawn at the velocities midway (geometric mean) between consecutive layer velocities; the cautions on tomograms are in section 10.</figcaption></figure>${table}`;
+}
+
+/** The check of the shear-wave layers against the P-wave line over the same ground, when one was given. */
+function pLineCheck(fig: Figures): string {
+  const check = fig.get('p_line_check') as { file: string; layers: { plausible: boolean; range_basis: string }[] } | undefined;
+  if (check === undefined) return '';
+  const rows = check.layers.map((l, i) => {
+    const p = `p_line_check.layers.${i}`;
+    return `<tr><td class="n">${fig.num(`${p}.layer`, 0)}</td><td class="n">${fig.num(`${p}.top_m`, 1)} to ${fig.get(`${p}.bottom_m`) === null ? 'below' : fig.num(`${p}.bottom_m`, 1)}</td><td class="n">${fig.num(`${p}.vs_mps`, 0)}</td><td class="n">${fig.num(`${p}.vp_mps`, 0)}</td><td class="n">${fig.num(`${p}.vp_vs`, 2)}</td><td>${l.plausible ? 'plausible' : '<strong>implausible</strong>'}: ${escapeHtml(l.range_basis)}</td></tr>`;
+  }).join('');
+  return `<h3>Shear-wave velocities checked against the P-wave line</h3><p>P-wave line over the same ground: ${escapeHtml(check.file)}. Vs must be lower than Vp in the same material (Vp/Vs at least √2 by elasticity).</p>
+<table class="data"><thead><tr><th>Layer</th><th>Depth (m)</th><th>Vs (m/s)</th><th>Vp (m/s)</th><th>Vp/Vs</th><th>Check</th></tr></thead><tbody>${rows}</tbody></table>`;
 }
