@@ -58,7 +58,7 @@ export function depthTableSection(input: ReportInput, fig: Figures): string {
     const pointIndex = new Map(r.points.map((p, i) => [p.x, i]));
     const rows = input.receivers.map((receiver, n) => {
       const i = pointIndex.get(receiver.x);
-      const rec = i === undefined ? '<td class="n">—</td><td class="n">—</td><td>—</td>' : `<td class="n rec">${fig.pm(`${path}.points.${i}.depth_m`, `${path}.points.${i}.depth_se_m`, 2)}</td><td class="n">${fig.num(`${path}.points.${i}.elev_m`, 2)}</td><td>${fig.text(`${path}.points.${i}.method`)}</td>`;
+      const rec = i === undefined ? '<td class="n">—</td><td class="n">—</td><td>—</td>' : `<td class="n rec">${fig.pm(`${path}.points.${i}.depth_m`, `${path}.points.${i}.depth_se_m`, 2)}</td><td class="n">${fig.num(`${path}.points.${i}.elev_m`, 2)}</td><td class="tight">${fig.text(`${path}.points.${i}.method`)}</td>`;
       const others = methods.map((m) => {
         const j = methodIndex.get(m)!.get(receiver.x);
         return `<td class="n">${j === undefined ? '—' : fig.num(`${path}.by_method.${m}.${j}.depth_m`, 2)}</td>`;
