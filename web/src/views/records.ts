@@ -112,7 +112,8 @@ export function recordsView(root: HTMLElement, ctx: AppContext): View {
       const picks = new Map(picksOf(input.name).map((p) => [p.trace!, p]));
       const positions = record.traces.map((t, i) => {
         const p = picks.get(t.index);
-        return p ? fromMetres(p.receiverX, unit) : i + 1;
+        // Before an interpretation (or without one) the headers place the trace, else its order.
+        return fromMetres(p ? p.receiverX : t.receiverLocation?.[0] ?? i + 1, unit);
       });
       const sorted = [...positions].sort((a, b) => a - b);
       const gaps = sorted.slice(1).map((x, i) => x - sorted[i]).filter((g) => g > 0).sort((a, b) => a - b);
@@ -145,7 +146,7 @@ export function recordsView(root: HTMLElement, ctx: AppContext): View {
       const shapes = selected ? [{ type: 'rect', xref: 'x', yref: 'paper', x0: position(selected) - spacing / 2, x1: position(selected) + spacing / 2, y0: 0, y1: 1, fillcolor: 'rgba(21,101,192,0.10)', line: { width: 0 } }] : [];
       const source = all[0];
       await draw(plot, data, {
-        title: { text: `${escapeHtml(input.name)}: source ${source ? escapeHtml(source.sourceId) : ''} at x = ${source ? length(source.sourceX, unit, 2) : '–'}, ${record.traces.length} traces`, font: { size: 13 } },
+        title: { text: `${escapeHtml(input.name)}: source ${source ? escapeHtml(source.sourceId) : ''} at x = ${length(source ? source.sourceX : record.traces[0]?.sourceLocation?.[0], unit, 2)}, ${record.traces.length} trace${record.traces.length === 1 ? '' : 's'}${source ? '' : ' (not interpreted: no picks shown)'}`, font: { size: 13 } },
         xaxis: { title: { text: `receiver position (${unit})` }, zeroline: false },
         yaxis: { title: { text: 'time after the shot (ms)' }, autorange: false, range: [bottom, Math.max(earliest, -5)], zeroline: true, zerolinecolor: '#c8c2b4' },
         shapes,
