@@ -119,6 +119,8 @@ describe('solveInterfaces (Johnson 1976) on ray-traced head waves', () => {
     expect(solveInterface(500, [{ velocity: 1500, dip: 0 }], 1 / 3000, 1 / 1400)).toBeUndefined();
     // Slownesses of opposite sign and equal size: the rays' mean angle is zero, no critical angle.
     expect(solveInterface(500, [], 1 / 3000, -1 / 3000)).toBeUndefined();
+    // solveInterfaces stops at the first interface it cannot solve: the next needs it.
+    expect(solveInterfaces(500, [[1 / 400, 1 / 400], [1 / 3000, 1 / 3000]])).toHaveLength(0);
     // Through flat layers the slowness is conserved: V3 = 1/s whatever the layers above (Telford §4.2).
     expect(solveInterface(500, [{ velocity: 1500, dip: 0 }], 1 / 3000, 1 / 3000)!.velocity).toBeCloseTo(3000, 6);
   });
@@ -149,6 +151,17 @@ describe('interpret on ray-traced first arrivals over plane dipping layers', () 
       expect(result.layers).toHaveLength(model.velocities.length);
       model.velocities.forEach((v, i) => expect(Math.abs(result.layers[i].velocity / v - 1)).toBeLessThan(0.005));
       model.dipDeg.forEach((d, k) => expect(Math.abs(result.layers[k + 1].dipDeg! - d)).toBeLessThan(0.1));
+      // Each refractor is reversed, and its apparent velocities are the traced ones (slope of time
+      // against offset, 1/sf down-dip from x = -0.5 and 1/sr from x = 71.5, between receivers 40 and 70).
+      model.dipDeg.forEach((_, k) => {
+        const layer = result.layers[k + 1];
+        expect(layer.reversed).toBe(true);
+        const forward = 30 / (headWaveTime(model, k + 1, -0.5, 70)! - headWaveTime(model, k + 1, -0.5, 40)!);
+        const reverse = 30 / (headWaveTime(model, k + 1, 71.5, 0)! - headWaveTime(model, k + 1, 71.5, 30)!);
+        expect(Math.abs(layer.forwardApparent! / forward - 1)).toBeLessThan(0.005);
+        expect(Math.abs(layer.reverseApparent! / reverse - 1)).toBeLessThan(0.005);
+      });
+      expect(result.layers[0].reversed).toBe(true);
       model.dipDeg.forEach((_, k) => {
         const points = result.refractors[k].byMethod['intercept-time'];
         expect(points.length).toBeGreaterThanOrEqual(2);
@@ -167,6 +180,16 @@ describe('interpret on ray-traced first arrivals over plane dipping layers', () 
       const { result } = interpretCsv(syntheticCsv(section, [-30, -10, 0, 47.5, 95, 105, 125], range(96, 1), 0.3, seed));
       expect(Math.abs(result.layers[2].dipDeg! - deg(Math.atan(0.03)))).toBeLessThan(0.6);
       expect(Math.abs(result.layers[1].dipDeg!)).toBeLessThan(0.3);
+      // Standard errors by the delta method: positive, and the truth within three of them.
+      [[1200, 0], [3000, deg(Math.atan(0.03))]].forEach(([velocity, dip], i) => {
+        const layer = result.layers[i + 1];
+        expect(layer.velocitySe).toBeGreaterThan(0);
+        expect(layer.dipSeDeg!).toBeGreaterThan(0);
+        expect(Math.abs(layer.velocity - velocity)).toBeLessThan(3 * layer.velocitySe);
+        expect(Math.abs(layer.dipDeg! - dip)).toBeLessThan(3 * layer.dipSeDeg!);
+      });
+      // The deeper refractor inherits the errors of the one above: its dip is less certain.
+      expect(result.layers[2].dipSeDeg!).toBeGreaterThan(result.layers[1].dipSeDeg!);
     }
   });
 });

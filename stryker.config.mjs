@@ -1,0 +1,42 @@
+// Mutation testing (StrykerJS, https://stryker-mutator.io) over the modules whose numbers reach a
+// permit packet: depths, site classes, layer velocities and dips, units, the forward model.
+// `npm run mutation` runs every module in turn; `MUTATION_MODULE=site npm run mutation` one of them.
+// Each module writes its own report folder under reports/mutation/ (git-ignored), with an
+// incremental file so a rerun tests only the mutants whose code or tests changed.
+// See DEVELOPERS.md, "Mutation testing".
+export const modules = {
+  depth: ['src/depth/**/*.ts'],
+  site: ['src/site/**/*.ts'],
+  layers: ['src/fit/layers.ts', 'src/fit/dippingLayers.ts'],
+  units: ['src/core/units.ts'],
+  forward: ['src/forward/**/*.ts'],
+};
+
+const selected = process.env.MUTATION_MODULE;
+if (selected !== undefined && !(selected in modules)) {
+  throw new Error(`MUTATION_MODULE=${selected} is not a module; expected one of ${Object.keys(modules).join(', ')}`);
+}
+const folder = `reports/mutation/${selected ?? 'all'}`;
+
+export default {
+  testRunner: 'vitest',
+  vitest: { configFile: 'vitest.mutation.config.ts' },
+  mutate: selected ? modules[selected] : Object.values(modules).flat(),
+  // Only the tests that cover a mutant run against it.
+  coverageAnalysis: 'perTest',
+  // Static mutants (module-level constants) would need the whole suite per mutant; they are left
+  // out and the report says how many.
+  ignoreStatic: true,
+  // Two cores shared with other work: one test process at a time (run it under `nice`).
+  concurrency: 1,
+  incremental: true,
+  incrementalFile: `${folder}/incremental.json`,
+  reporters: ['clear-text', 'progress', 'html', 'json'],
+  htmlReporter: { fileName: `${folder}/index.html` },
+  jsonReporter: { fileName: `${folder}/mutation.json` },
+  clearTextReporter: { allowColor: false, logTests: false, reportMutants: false, reportScoreTable: true },
+  thresholds: { high: 90, low: 80 },
+  tempDirName: '.stryker-tmp',
+  cleanTempDir: 'always',
+  timeoutMS: 30000,
+};
