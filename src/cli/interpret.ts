@@ -116,7 +116,10 @@ export function interpretRecords(records: string[], values: Record<string, unkno
   const log = new WarningLog();
   for (const s of skipped) log.add('record-skipped', `${s.message}; the record was left out of the interpretation`);
   for (const note of notes ?? []) log.add(note.code, note.message);
-  for (const sentence of unpickedSummary(rows)) log.add('unpicked-traces', sentence);
+  for (const sentence of unpickedSummary(rows)) {
+    log.add('unpicked-traces', sentence);
+    io.stderr(`hammerline: ${sentence}\n`);
+  }
   // The picks reach the interpretation as a table; its rows are traces of records to the user.
   const relabel = traceLabeller(rows);
   let table: FirstBreakTable;

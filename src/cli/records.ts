@@ -6,7 +6,7 @@ import { pickTableCsv, unpickedSummary } from '../io/pickTable.js';
 import { readSeg2 } from '../io/seg2/read.js';
 import type { Seg2Record } from '../io/seg2/types.js';
 import { readStations } from '../io/stationsCsv.js';
-import { pickSeg2, type PickRow } from '../picking/recordPicks.js';
+import { geometryNotes, pickSeg2, type PickRow } from '../picking/recordPicks.js';
 import { pickRecords, type RecordGroup, type RecordsPickOptions } from '../picking/pickRecords.js';
 import { commandHelp } from './help.js';
 import { lengthUnitOption, listOption, numberOption, parse, readInput, waveOption } from './args.js';
@@ -74,6 +74,7 @@ export function pickAll(files: string[], values: Record<string, unknown>, unit: 
   if (options.wave === 'S') return pickShearAll(files, values, options, io);
   const rows: PickRow[] = [];
   const skipped: PickedRecords['skipped'] = [];
+  const notes: NonNullable<PickedRecords['notes']> = [];
   files.forEach((file, i) => {
     if (files.length > 1 && !values.quiet) io.stderr(`[${i + 1}/${files.length}] picking ${file}\n`);
     try {
@@ -87,6 +88,7 @@ export function pickAll(files: string[], values: Record<string, unknown>, unit: 
       }
       checkRecordVelocities(record, picked, wave, Boolean(values['accept-velocities']), io);
       for (const row of picked) rows.push(row);
+      notes.push(...geometryNotes(record, options));
     } catch (error) {
       if (!(error instanceof InputError) || files.length === 1) throw error;
       io.stderr(`hammerline: ${error.message}\nhammerline: ${file}: skipped\n`);
@@ -94,7 +96,7 @@ export function pickAll(files: string[], values: Record<string, unknown>, unit: 
     }
   });
   if (skipped.length === files.length) throw new InputError({}, `none of the ${files.length} records could be picked (see the messages above)`);
-  return { rows, skipped };
+  return { rows, skipped, notes };
 }
 
 /**
@@ -129,7 +131,7 @@ function pickShearAll(files: string[], values: Record<string, unknown>, options:
     const own = picked.rows.filter((row) => row.file === record.file || row.file.startsWith(`${record.file} `));
     if (own.length > 0) checkRecordVelocities(record, own, 'S', Boolean(values['accept-velocities']), io);
   }
-  return { rows: picked.rows, skipped, groups: picked.groups, notes: picked.notes };
+  return { rows: picked.rows, skipped, groups: picked.groups, notes: [...records.flatMap((r) => geometryNotes(r, options)), ...(picked.notes ?? [])] };
 }
 
 /**

@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/core/errors.js';
 import { readSeg2 } from '../../src/io/seg2/read.js';
 import { readStations } from '../../src/io/stationsCsv.js';
-import { fileStem, pickSeg2 } from '../../src/picking/recordPicks.js';
+import { pickTableCsv } from '../../src/io/pickTable.js';
+import { fileStem, geometryNotes, pickSeg2 } from '../../src/picking/recordPicks.js';
 import { writeSeg2 } from '../io/seg2/writeSeg2.js';
 import { causalTrace } from './syntheticRecord.js';
 
@@ -48,5 +49,52 @@ describe('fileStem', () => {
     }
     // Windows folders, as a browser may give them in a dropped path.
     expect(fileStem('C:\\line\\S3.seg2')).toBe('S3');
+  });
+});
+
+// A record whose headers carry positions and elevations: receivers at x = 0, 2, ... 22 m, ground
+// falling 0.1 m per metre from 50 m (RECEIVER_LOCATION x, y, z), the source at x = -2 m.
+function locatedRecord() {
+  const traces = Array.from({ length: 12 }, (_, i) => ({
+    code: 2 as const,
+    samples: Array.from(causalTrace(400, 0.00025, -0.005, (2 * i + 2) / 500, 20, i), (v) => Math.round(v * 100)),
+    keywords: [['SAMPLE_INTERVAL', '0.00025'], ['DELAY', '-0.005'], ['SOURCE_LOCATION', '-2 0 50.2'], ['RECEIVER_LOCATION', `${2 * i} 0 ${(50 - 0.2 * i).toFixed(2)}`]] as [string, string][],
+  }));
+  return readSeg2(writeSeg2(traces), 'located.seg2');
+}
+
+describe('pickSeg2 precedence of geometry', () => {
+  it('pickSeg2 with --stations uses the table\'s elevations over the headers\' and geometryNotes names the traces that differ', () => {
+    // The table: ground 0.3 m above the headers' from x = 10 m on (traces 6 to 12).
+    const table = readStations('x,elev\n' + Array.from({ length: 12 }, (_, i) => `${2 * i},${(50 - 0.2 * i + (2 * i >= 10 ? 0.3 : 0)).toFixed(2)}`).join('\n') + '\n', 'survey.csv');
+    const rows = pickSeg2(locatedRecord(), { stations: table });
+    expect(rows[6].receiverElev).toBeCloseTo(50 - 1.2 + 0.3, 9);
+    const notes = geometryNotes(locatedRecord(), { stations: table });
+    const precedence = notes.find((n) => n.code === 'elevation-precedence')!;
+    expect(precedence.message).toMatch(/located\.seg2: the receiver elevations in the headers \(RECEIVER_LOCATION\) of 7 traces \(6, 7, 8, 9, 10, 11, 12\) differ from the station table survey\.csv by up to 0\.3 m .*; the station table is used/);
+    // Agreement within 0.01 m raises nothing.
+    const same = readStations('x,elev\n' + Array.from({ length: 12 }, (_, i) => `${2 * i},${(50 - 0.2 * i).toFixed(2)}`).join('\n') + '\n', 'same.csv');
+    expect(geometryNotes(locatedRecord(), { stations: same }).filter((n) => n.code === 'elevation-precedence')).toEqual([]);
+  });
+
+  it('geometryNotes names the stations beyond the table\'s ends and the table, rather than clamping silently', () => {
+    // The table covers x = 0 to 16 m only: traces 10 to 12 (x = 18, 20, 22 m) and the source (x = -2 m) lie beyond.
+    const short = readStations('x,elev\n0,50\n16,48.4\n', 'short.csv');
+    const notes = geometryNotes(locatedRecord(), { stations: short });
+    expect(notes.map((n) => n.code)).toEqual(['elevation-precedence', 'beyond-station-table', 'beyond-station-table']);
+    expect(notes[1].message).toMatch(/receivers of traces 10 \(x = 18 m\), 11 \(x = 20 m\), 12 \(x = 22 m\) lie beyond the station table short\.csv \(x = 0 to 16 m\); their elevations are the table's end value/);
+    expect(notes[2].message).toMatch(/the source at x = -2 m lies beyond the station table short\.csv/);
+  });
+
+  it('pickSeg2 with --source-x keeps the elevations: the source takes the receivers\' ground at its position', () => {
+    // --source-x=-8: beyond the first receiver (x = 0, 50 m), so the end value 50 m (linear inside).
+    const rows = pickSeg2(locatedRecord(), { sourceX: -8 });
+    expect(rows.every((r) => r.sourceElev === 50)).toBe(true);
+    const inside = pickSeg2(locatedRecord(), { sourceX: 3 });
+    // Between x = 2 (49.8 m) and 4 m (49.6 m): 49.7 m, by hand.
+    expect(inside[0].sourceElev).toBeCloseTo(49.7, 9);
+    const csv = pickTableCsv(rows);
+    expect(csv.split('\n')[0]).toBe('source_id,source_x,source_elev,receiver_x,receiver_elev,time_ms,confidence,source_file,trace');
+    expect(geometryNotes(locatedRecord(), { sourceX: -8 })[0].code).toBe('source-elevation-interpolated');
   });
 });
