@@ -1,3 +1,4 @@
+import { pushAll } from '../core/extent.js';
 import { InputError } from '../core/errors.js';
 import type { Wave } from '../core/types.js';
 import { apparentVelocityProblem, medianApparentVelocity } from '../io/apparentVelocity.js';
@@ -88,7 +89,7 @@ export function pickAll(files: string[], values: Record<string, unknown>, unit: 
       }
       checkRecordVelocities(record, picked, wave, Boolean(values['accept-velocities']), io);
       for (const row of picked) rows.push(row);
-      notes.push(...geometryNotes(record, options));
+      pushAll(notes, geometryNotes(record, options));
     } catch (error) {
       if (!(error instanceof InputError) || files.length === 1) throw error;
       io.stderr(`hammerline: ${error.message}\nhammerline: ${file}: skipped\n`);

@@ -1,4 +1,5 @@
 import { InputError } from '../core/errors.js';
+import { maxOf, minOf } from '../core/extent.js';
 import { linearAt } from '../core/interpolate.js';
 import type { Wave } from '../core/types.js';
 import type { Seg2Record } from '../io/seg2/types.js';
@@ -86,8 +87,8 @@ export function geometryNotes(record: Seg2Record, options: GeometryOptions = {})
       notes.push({ code: 'elevation-precedence', message: `${file}: the receiver elevations in the headers (RECEIVER_LOCATION) of ${differing.length} trace${differing.length > 1 ? 's' : ''} (${differing.slice(0, 8).map((d) => d.trace).join(', ')}${differing.length > 8 ? ', ...' : ''}) differ from the station table ${stations.file} by up to ${f(Math.abs(worst.header - worst.table))} m (trace ${worst.trace}: ${f(worst.header)} m in the header, ${f(worst.table)} m in the table); the station table is used` });
     }
     const xs = stations.rows.map((r) => r.x);
-    const lo = Math.min(...xs);
-    const hi = Math.max(...xs);
+    const lo = minOf(xs);
+    const hi = maxOf(xs);
     const beyond = record.traces.map((t, i) => ({ trace: t.index, x: receiverXs[i] })).filter((b) => b.x !== undefined && (b.x < lo || b.x > hi));
     if (beyond.length > 0) {
       notes.push({ code: 'beyond-station-table', message: `${file}: the receiver${beyond.length > 1 ? 's' : ''} of trace${beyond.length > 1 ? 's' : ''} ${beyond.slice(0, 8).map((b) => `${b.trace} (x = ${f(b.x!)} m)`).join(', ')}${beyond.length > 8 ? ', ...' : ''} ${beyond.length > 1 ? 'lie' : 'lies'} beyond the station table ${stations.file} (x = ${f(lo)} to ${f(hi)} m); ${beyond.length > 1 ? 'their elevations are' : 'its elevation is'} the table's end value, not surveyed: extend the table to cover them` });
