@@ -1,5 +1,5 @@
 import { checkRecord, localSpikes, pickNear, pickRecord, pickTrace, travelTimeFit, type PickOptions, type PickTrace, type TracePick } from './autoPick.js';
-import { precedesShear, SHEAR_AFTER_P, shearOnset } from './shearOnset.js';
+import { SHEAR_AFTER_P, shearAfter, shearOnset } from './shearOnset.js';
 import { minOf } from '../core/extent.js';
 
 /**
@@ -26,7 +26,7 @@ export function pMoveout(traces: PickTrace[], confirmed: TracePick[], raw: Trace
     if (members.length < 6) continue;
     // Early spikes (noise taken for a weak P) first, as in the record check of the first breaks.
     const spikes = new Set(localSpikes(members.map((m) => m.x), members.map((m) => curve[m.i]!), traces[members[0].i].sampleInterval));
-    const clean = members.filter((_, k) => !spikes.has(k));
+    const clean = outwardConcave(members.filter((_, k) => !spikes.has(k)).map((m) => ({ ...m, time: curve[m.i]! })), traces[members[0].i].sampleInterval);
     if (clean.length < 6) continue;
     const fit = travelTimeFit(clean.map((m) => m.x), clean.map((m) => curve[m.i]!));
     if (fit === undefined) continue;
@@ -51,7 +51,7 @@ export interface ShearPickResult {
 
 /**
  * Picks the S-wave onset on every trace of an SH record (horizontal geophones, beam source):
- * the P first breaks are picked first (`pickRecord`; kept as P where `precedesShear` confirms a
+ * the P first breaks are picked first (`pickRecord`; kept as P by `confirmedP` where `precedesShear` confirms a
  * stronger arrival after them; or given: for a polarity pair, from the sum of the two records,
  * where the S cancels), their moveout fitted across the record (`pMoveout`), each trace's S onset
  * searched after its P (`shearOnset`), and the S picks then checked across the record like first
@@ -65,7 +65,7 @@ export interface ShearPickResult {
 export function pickShearRecord(traces: PickTrace[], options: PickOptions = {}, pFirstBreaks?: TracePick[]): ShearPickResult {
   const raw = pFirstBreaks ?? pickRecord(traces, options);
   // First breaks of this record count as P only where a stronger arrival follows them.
-  const confirmed = pFirstBreaks ?? raw.map((p, i) => (p.time !== undefined && !precedesShear(traces[i], p.time, options) ? { ...p, time: undefined, status: 'no clear onset' as const } : p));
+  const confirmed = pFirstBreaks ?? confirmedP(traces, raw, options);
   const { curve, search } = pMoveout(traces, confirmed, raw);
   const onP = (pick: TracePick, i: number) => pick.time !== undefined && curve[i] !== undefined && Math.abs(pick.time - curve[i]!) <= Math.max(3 * traces[i].sampleInterval, 1e-3);
   const initial = traces.map((t, i) => {
@@ -82,4 +82,62 @@ export function pickShearRecord(traces: PickTrace[], options: PickOptions = {}, 
     if (onP(pick, i)) picks[i] = { confidence: 0, status: 'on the P arrival', snr: pick.snr };
   });
   return { picks, pTimes: curve };
+}
+
+/**
+ * Least median ratio of the S time to the first-break time, on the traces nearest the source,
+ * for the first breaks to be taken as P: Vp/Vs ≥ √2 in any ground with Poisson's ratio ≥ 0, and
+ * soils show 1.7 to 3 or more (common practice), while a surface wave behind the S (slower than
+ * the top layer's S) follows a first break that is itself the S at only 1.1 to 1.3 times its time.
+ */
+export const SHEAR_TO_P_NEAR = 1.5;
+
+/**
+ * The first breaks of an SH record that are P (`precedesShear`: an S twice as strong follows
+ * them); none at all when, on the six traces nearest the source on each side, the median ratio
+ * of that S to the first break is under SHEAR_TO_P_NEAR: the first breaks are then the S itself
+ * and what follows them the surface wave. The others lose their time.
+ */
+export function confirmedP(traces: PickTrace[], firstBreaks: TracePick[], options: PickOptions = {}): TracePick[] {
+  const after = traces.map((t, i) => (firstBreaks[i].time !== undefined && t.offset !== 0 ? shearAfter(t, firstBreaks[i].time!, options) : undefined));
+  const ratios: number[] = [];
+  for (const side of [-1, 1]) {
+    traces.map((t, i) => ({ x: Math.abs(t.offset), i })).filter(({ i }) => Math.sign(traces[i].offset) === side && after[i] !== undefined && firstBreaks[i].time! > 0)
+      .sort((a, b) => a.x - b.x).slice(0, 6).forEach(({ i }) => ratios.push(after[i]! / firstBreaks[i].time!));
+  }
+  ratios.sort((a, b) => a - b);
+  const none = ratios.length > 0 && ratios[ratios.length >> 1] < SHEAR_TO_P_NEAR;
+  return firstBreaks.map((p, i) => (none || after[i] === undefined ? { ...p, time: undefined, status: 'no clear onset' as const } : p));
+}
+
+/**
+ * The first breaks of one side (sorted by offset) that continue a concave first-arrival curve
+ * outwards from the source: each is kept when it is no later, within max(1 ms, 3 samples, a fifth
+ * of the time), than the line through the last four kept ones (Theil-Sen) extended to it. A P
+ * curve only bends towards faster slopes (deeper, faster refractors); first breaks that jump later
+ * than the extension are not the P but the S (1.4 to 3 times as late) where the P is lost in the
+ * noise: a single one is passed over, and after three in a row the rest are left out.
+ */
+function outwardConcave<T extends { x: number; time: number }>(members: T[], dt: number): T[] {
+  const kept: T[] = [];
+  const tolerance = Math.max(1e-3, 3 * dt);
+  let late = 0;
+  for (const m of members) {
+    if (kept.length >= 2) {
+      const last = kept.slice(-4);
+      const slopes: number[] = [];
+      for (let a = 0; a < last.length; a++) for (let b = a + 1; b < last.length; b++) if (last[b].x > last[a].x) slopes.push((last[b].time - last[a].time) / (last[b].x - last[a].x));
+      slopes.sort((p, q) => p - q);
+      const slope = slopes.length > 0 ? slopes[slopes.length >> 1] : 0;
+      const end = kept[kept.length - 1];
+      const extended = end.time + slope * (m.x - end.x);
+      if (m.time > extended + Math.max(tolerance, 0.2 * extended)) {
+        if (++late >= 3) break;
+        continue;
+      }
+    }
+    late = 0;
+    kept.push(m);
+  }
+  return kept;
 }

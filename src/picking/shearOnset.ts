@@ -93,8 +93,13 @@ export function peakBetween(t: PickTrace, from: number, to: number): number {
  * taken to be the S itself, its P lost in the noise.
  */
 export function precedesShear(t: PickTrace, firstBreak: number, options: PickOptions = {}): boolean {
+  return shearAfter(t, firstBreak, options) !== undefined;
+}
+
+/** The S onset by which `precedesShear` shows a first break to be a P (seconds after the shot), or undefined. */
+export function shearAfter(t: PickTrace, firstBreak: number, options: PickOptions = {}): number | undefined {
   const s = shearOnset(t, firstBreak, options);
-  if (s.time === undefined) return false;
+  if (s.time === undefined) return undefined;
   const span = 3 * windows(t, options).short * t.sampleInterval;
-  return peakBetween(t, s.time, s.time + span) >= 2 * peakBetween(t, firstBreak, Math.min(s.time, firstBreak + span));
+  return peakBetween(t, s.time, s.time + span) >= 2 * peakBetween(t, firstBreak, Math.min(s.time, firstBreak + span)) ? s.time : undefined;
 }

@@ -54,3 +54,22 @@ describe('pickSeg2 with wave S on SH records', () => {
     expect(p.onP).toBeGreaterThanOrEqual(0.8 * p.traces);
   });
 });
+
+describe('pickShearRecord where the P is lost in the noise', () => {
+  it('pickShearRecord takes the first breaks as the S, not as a P ahead of the surface wave, when no weaker P precedes them', async () => {
+    const { pickShearRecord } = await import('../../src/picking/pickShearRecord.js');
+    const { shearShot } = await import('./shearRecord.js');
+    // P at a tenth of the S (peak signal-to-noise about 1: not seen), a surface wave three times the S.
+    const errors: number[] = [];
+    for (const [sx, seed] of [[0, 61], [70.5, 62]] as const) {
+      const shot = shearShot(line, sx, receivers, { pRatio: 0.1, snr: 12, surfaceAmplitude: 3, seed, sampleInterval: 0.0005, samples: 1000, step: 0.25 });
+      pickShearRecord(shot.traces).picks.forEach((p, r) => {
+        if (shot.traces[r].offset !== 0) errors.push(p.time === undefined ? 1 : Math.abs(p.time - shot.sTimes[r]));
+      });
+    }
+    errors.sort((a, b) => a - b);
+    // Median within 1 ms of the S onsets (issue 14), and three quarters of the traces within 2 ms.
+    expect(errors[errors.length >> 1]).toBeLessThanOrEqual(1e-3);
+    expect(errors[Math.floor(0.75 * (errors.length - 1))]).toBeLessThanOrEqual(2e-3);
+  });
+});
