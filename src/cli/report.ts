@@ -92,6 +92,9 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
   if (!table.hasElevations && values.stations === undefined) missing.push('ground elevations (none were supplied; flat ground was assumed)');
   else if (job.elevationDatum === undefined) missing.push('Elevation datum (of the ground elevations supplied)');
   const notices: string[] = [];
+  // The report is drawn in SI throughout (its figures, tables and the JSON it matches); a line read
+  // in feet is said so at the top rather than silently converted.
+  if (choices.unit === 'ft') notices.push('The input lengths were given in feet and were converted to metres (1 ft = 0.3048 m exactly); this report gives every length in metres and every velocity in m/s. Multiply metres by 3.2808 for feet.');
   if (job.geophoneSpacing !== undefined && Math.abs(job.geophoneSpacing - spacing) > 0.02 * spacing) {
     notices.push(`The nominal geophone spacing given (${job.geophoneSpacing.toFixed(2)} m) differs from the median spacing of the data (${spacing.toFixed(2)} m); the data are used.`);
   }
