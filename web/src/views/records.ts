@@ -126,8 +126,15 @@ export function recordsView(root: HTMLElement, ctx: AppContext): View {
       const pickTimes = all.filter((p) => p.time !== undefined).map((p) => p.time! * 1e3);
       const bottom = Math.min(latest, Math.max(20, (pickTimes.length > 0 ? Math.max(...pickTimes) : latest) * 1.5));
       const data: PlotData[] = [];
-      if (display.value !== 'wiggle') data.push({ type: 'scatter', mode: 'lines', x: traces.areaX, y: traces.areaY, fill: 'toself', fillcolor: 'rgba(40,44,52,0.55)', line: { width: 0 }, hoverinfo: 'skip', name: 'variable area', showlegend: false });
-      if (display.value !== 'area') data.push({ type: 'scatter', mode: 'lines', x: traces.wiggleX, y: traces.wiggleY, line: { width: 0.7, color: '#262a30' }, hoverinfo: 'skip', name: 'wiggle', showlegend: false });
+      // The traces are painted on a canvas laid under the plot as an image (the picks stay plotly
+      // markers): a pick edit then redraws a few markers, not tens of thousands of trace points.
+      const xs = positions.length > 0 ? positions : [0];
+      const ownRange = { x: [Math.min(...xs) - spacing, Math.max(...xs) + spacing], y: [bottom, Math.max(earliest, -5)] };
+      const shown = plot._fullLayout && (plot as unknown as { _hammerlineRevision?: string })._hammerlineRevision === `${input.name}|${unit}`
+        ? { x: (plot._fullLayout.xaxis as unknown as { range: number[] }).range, y: (plot._fullLayout.yaxis as unknown as { range: number[] }).range }
+        : ownRange;
+      const size = (plot._fullLayout as unknown as { _size?: { w: number; h: number } } | undefined)?._size ?? { w: Math.max(200, plot.clientWidth - 80), h: Math.max(200, plot.clientHeight - 120) };
+      const image = traceImage(traces, shown, size, display.value);
       const automatic = all.filter((p) => p.time !== undefined && !p.edited);
       const byHand = all.filter((p) => p.time !== undefined && p.edited);
       const unpicked = all.filter((p) => p.time === undefined);
@@ -147,12 +154,22 @@ export function recordsView(root: HTMLElement, ctx: AppContext): View {
       const source = all[0];
       await draw(plot, data, {
         title: { text: `${escapeHtml(input.name)}: source ${source ? escapeHtml(source.sourceId) : ''} at x = ${length(source ? source.sourceX : record.traces[0]?.sourceLocation?.[0], unit, 2)}, ${record.traces.length} trace${record.traces.length === 1 ? '' : 's'}${source ? '' : ' (not interpreted: no picks shown)'}`, font: { size: 13 } },
-        xaxis: { title: { text: `receiver position (${unit})` }, zeroline: false },
-        yaxis: { title: { text: 'time after the shot (ms)' }, autorange: false, range: [bottom, Math.max(earliest, -5)], zeroline: true, zerolinecolor: '#c8c2b4' },
+        xaxis: { title: { text: `receiver position (${unit})` }, zeroline: false, autorange: false, range: ownRange.x },
+        yaxis: { title: { text: 'time after the shot (ms)' }, autorange: false, range: ownRange.y, zeroline: true, zerolinecolor: '#c8c2b4' },
+        images: [{ source: image, xref: 'paper', yref: 'paper', x: 0, y: 1, sizex: 1, sizey: 1, xanchor: 'left', yanchor: 'top', sizing: 'stretch', layer: 'below' }],
         shapes,
         uirevision: `${input.name}|${unit}`,
         dragmode: 'zoom',
       });
+      const element = plot as unknown as { _hammerlineRevision?: string; _hammerlineZoom?: boolean };
+      element._hammerlineRevision = `${input.name}|${unit}`;
+      if (!element._hammerlineZoom) {
+        element._hammerlineZoom = true;
+        // A zoom or pan repaints the traces for the new ranges.
+        plot.on?.('plotly_relayout', (change: Record<string, unknown>) => { if (Object.keys(change).some((k) => k.includes('range') || k.includes('autorange'))) void view.render(); });
+      }
+      const now = (plot._fullLayout as unknown as { _size: { w: number; h: number } })._size;
+      if (now.w !== size.w || now.h !== size.h) { void view.render(); return; }
       info.innerHTML = selected ? `Selected: ${describe(selected).replace(/<br>/g, '; ')}${selected.edited && selected.autoTime !== undefined ? `; automatic pick ${(selected.autoTime * 1e3).toFixed(2)} ms` : ''}` : 'No trace selected.';
     },
 
@@ -231,4 +248,44 @@ function buildTraceLines(record: Seg2Record, positions: number[], scale: number,
     areaX.push(x0, x0, null); areaY.push(first + dt * (t.data.length - 1), first, null);
   });
   return { wiggleX, wiggleY, areaX, areaY, earliest, latest };
+}
+
+let imageCache: { key: string; url: string; lines: unknown } | undefined;
+
+/** The traces painted for the given axis ranges (x: [left, right], y: [bottom time, top time], ms) and plot size in pixels. */
+function traceImage(lines: ReturnType<typeof buildTraceLines>, range: { x: number[]; y: number[] }, size: { w: number; h: number }, display: string): string {
+  const scale = Math.min(2, window.devicePixelRatio || 1);
+  const key = `${range.x.join(',')}|${range.y.join(',')}|${size.w}x${size.h}|${display}|${scale}`;
+  if (imageCache?.key === key && imageCache.lines === lines) return imageCache.url;
+  const canvas = document.createElement('canvas');
+  canvas.width = Math.round(size.w * scale);
+  canvas.height = Math.round(size.h * scale);
+  const context = canvas.getContext('2d')!;
+  const px = (x: number) => ((x - range.x[0]) / (range.x[1] - range.x[0])) * canvas.width;
+  const py = (t: number) => ((t - range.y[1]) / (range.y[0] - range.y[1])) * canvas.height;
+  const path = (xs: (number | null)[], ts: (number | null)[]) => {
+    context.beginPath();
+    let open = false;
+    for (let i = 0; i < xs.length; i++) {
+      if (xs[i] === null) { open = false; continue; }
+      const x = px(xs[i]!);
+      const y = py(ts[i]!);
+      if (open) context.lineTo(x, y); else { context.moveTo(x, y); open = true; }
+    }
+  };
+  if (display !== 'wiggle') {
+    // Each trace's positive lobes as one closed polygon down the trace and back up its axis.
+    path(lines.areaX, lines.areaY);
+    context.fillStyle = 'rgba(40,44,52,0.55)';
+    context.fill();
+  }
+  if (display !== 'area') {
+    path(lines.wiggleX, lines.wiggleY);
+    context.strokeStyle = '#262a30';
+    context.lineWidth = 0.8 * scale;
+    context.stroke();
+  }
+  const url = canvas.toDataURL('image/png');
+  imageCache = { key, url, lines };
+  return url;
 }
