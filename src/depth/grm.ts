@@ -1,6 +1,6 @@
 import { SimpleLinearRegression } from 'ml-regression';
 import type { DelayProfile } from './delayProfile.js';
-import { timeAt } from './headWaves.js';
+import { intervalIndex, timeAt } from './headWaves.js';
 import type { ReversedPair } from './reversedPair.js';
 
 /** One XY value tried by the GRM velocity analysis. */
@@ -90,8 +90,7 @@ export function grm(pair: ReversedPair, refractor: number, spacing: number, pick
 
 /** Variance of a time interpolated at x relative to a pick's: 1 at a receiver, (1−t)² + t² between. */
 function noiseFactor(xs: number[], x: number): number {
-  let i = 0;
-  while (i < xs.length - 1 && xs[i + 1] < x) i++;
+  const i = intervalIndex(xs, x);
   if (i >= xs.length - 1 || Math.abs(xs[i] - x) < 1e-9) return 1;
   const t = (x - xs[i]) / (xs[i + 1] - xs[i]);
   return (1 - t) ** 2 + t * t;

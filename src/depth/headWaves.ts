@@ -1,4 +1,3 @@
-import { linearWithin } from '../core/interpolate.js';
 import type { BranchFit } from '../core/types.js';
 
 /** Head-wave first breaks of one branch from one refractor: receiver positions (ascending) and times. */
@@ -34,7 +33,30 @@ export function headCurves(fits: BranchFit[], layer: number): HeadCurve[] {
 
 /** Linear interpolation of a curve at x, only inside its range (undefined outside). */
 export function timeAt(curve: { xs: number[]; times: number[] }, x: number): number | undefined {
-  return linearWithin(curve.xs, curve.times, x);
+  const { xs, times } = curve;
+  const last = xs.length - 1;
+  if (last < 0 || x < xs[0] - 1e-9 || x > xs[last] + 1e-9) return undefined;
+  const i = intervalIndex(xs, x);
+  if (i === last || Math.abs(xs[i] - x) < 1e-9) return times[i];
+  const t = (x - xs[i]) / (xs[i + 1] - xs[i]);
+  return times[i] * (1 - t) + times[i + 1] * t;
+}
+
+/**
+ * Index i of the interval [xs[i], xs[i+1]] holding x in ascending positions: the first i with
+ * xs[i+1] ≥ x (the last index when there is none), by binary search, so that looking up every
+ * geophone of a long line costs n log n, not n².
+ */
+export function intervalIndex(xs: ArrayLike<number>, x: number): number {
+  const last = xs.length - 1;
+  let lo = 1;
+  let hi = last + 1;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (xs[mid] < x) lo = mid + 1;
+    else hi = mid;
+  }
+  return Math.min(lo - 1, Math.max(0, last));
 }
 
 /** A head-wave time curve made of one source's own picks and phantomed picks of other sources. */

@@ -44,12 +44,32 @@ export function reciprocalChecks(fits: BranchFit[], pickNoise: number, warnings:
   const tolerance = reciprocalTolerance(pickNoise);
   const forward = fits.filter((f) => f.branch.side === 'forward');
   const reverse = fits.filter((f) => f.branch.side === 'reverse');
+  // Each branch's curve once, and only the pairs that can reach each other: a reverse source
+  // inside the reach of the forward branch (so a long line costs per source, not per pair).
+  const forwardCurves = forward.map(branchCurve);
+  const reverseCurves = reverse.map(branchCurve);
+  const byPosition = reverse.map((_, i) => i).sort((i, j) => reverse[i].branch.sourceX - reverse[j].branch.sourceX);
+  const positions = byPosition.map((i) => reverse[i].branch.sourceX);
   const checks: ReciprocalCheck[] = [];
-  for (const a of forward) {
-    for (const b of reverse) {
-      if (!(b.branch.sourceX > a.branch.sourceX)) continue;
-      const timeAB = timeAt(branchCurve(a), b.branch.sourceX);
-      const timeBA = timeAt(branchCurve(b), a.branch.sourceX);
+  forward.forEach((a, ai) => {
+    const curveA = forwardCurves[ai];
+    if (curveA.xs.length === 0) return;
+    const reach = curveA.xs[curveA.xs.length - 1] + 1e-9;
+    // First reverse source east of A (binary search), then every one up to A's reach.
+    let lo = 0;
+    let hi = positions.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (positions[mid] > a.branch.sourceX) hi = mid;
+      else lo = mid + 1;
+    }
+    const partners: number[] = [];
+    for (let k = lo; k < positions.length && positions[k] <= reach; k++) partners.push(byPosition[k]);
+    partners.sort((i, j) => i - j);
+    for (const bi of partners) {
+      const b = reverse[bi];
+      const timeAB = timeAt(curveA, b.branch.sourceX);
+      const timeBA = timeAt(reverseCurves[bi], a.branch.sourceX);
       if (timeAB === undefined || timeBA === undefined) continue;
       const difference = Math.abs(timeAB - timeBA);
       const check = { sourceA: a.branch.sourceId, sourceB: b.branch.sourceId, timeAB, timeBA, difference, tolerance, ok: difference <= tolerance };
@@ -59,6 +79,6 @@ export function reciprocalChecks(fits: BranchFit[], pickNoise: number, warnings:
           `reciprocal times of sources ${check.sourceA} and ${check.sourceB} differ by ${(difference * 1e3).toFixed(2)} ms (${(timeAB * 1e3).toFixed(2)} and ${(timeBA * 1e3).toFixed(2)} ms), more than the ${(tolerance * 1e3).toFixed(2)} ms tolerance: check the picks near both sources, the trigger, and the source positions`);
       }
     }
-  }
+  });
   return checks;
 }

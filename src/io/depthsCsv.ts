@@ -19,10 +19,16 @@ export function depthsCsv(result: InterpretationResult, receivers: { x: number; 
   const header = ['x', 'ground_elev'];
   for (const r of result.refractors) header.push(`depth_${r.index}`, `depth_${r.index}_se`, `elev_${r.index}`, `method_${r.index}`);
   lines.push(header.map((h) => csvText(h)).join(','));
+  // Point index by position, per refractor: a lookup per geophone instead of a search (long lines).
+  const indexByX = result.refractors.map((r) => {
+    const index = new Map<number, number>();
+    r.points.forEach((p, i) => { if (!index.has(p.x)) index.set(p.x, i); });
+    return index;
+  });
   for (const receiver of receivers) {
     const cells = [decimal(len(receiver.x), 3), decimal(len(receiver.elev), 3)];
-    for (const r of result.refractors) {
-      const i = r.points.findIndex((p) => p.x === receiver.x);
+    for (const [k, r] of result.refractors.entries()) {
+      const i = indexByX[k].get(receiver.x) ?? -1;
       const p = i >= 0 ? r.points[i] : undefined;
       cells.push(decimal(len(p?.depth), 3), decimal(len(p?.depthSe), 3), decimal(len(p?.elev), 3), p ? csvText(r.pointMethods[i]) : '');
     }
