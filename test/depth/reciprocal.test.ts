@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { WarningLog } from '../../src/core/warnings.js';
 import { intervalIndex } from '../../src/depth/headWaves.js';
 import { reciprocalChecks } from '../../src/depth/reciprocal.js';
-import { csvFrom, interpretCsv, range } from '../helpers.js';
+import { interpretCsv, range } from '../helpers.js';
 
 describe('reciprocalChecks', () => {
   it('reciprocalChecks on a rolling-spread line finds every pair a brute-force search over all pairs finds, with equal times', () => {
