@@ -1,4 +1,4 @@
-import { inWaterBand, WATER_TABLE_VP_MAX, WATER_TABLE_VP_MIN } from '../core/cautions.js';
+import { WATER_TABLE_VP_MIN } from '../core/cautions.js';
 import { InputError } from '../core/errors.js';
 import { si, vel, type SiText } from '../core/siText.js';
 import { depthAt } from '../depth/delayProfile.js';
@@ -6,6 +6,20 @@ import type { Interpretation, Layer, Refractor } from '../core/types.js';
 import type { SiteInput, SiteStation, VsLayer } from './siteAssessment.js';
 import { poissonFromRatio, vpVsRatio } from './vsFromVp.js';
 import { minOf, maxOf } from '../core/extent.js';
+
+/**
+ * Highest Vp, in m/s, taken as possibly saturated soil when Vs is estimated from Vp: saturated
+ * soil shows Vp from about the speed of sound in water (1480-1500 m/s) up to about 2000 m/s in
+ * dense soils (common practice, recalled from memory). Wider than the water-table warning's band
+ * (1450-1650 m/s) because the fitted Vp of a thin saturated layer runs high (forward-model lines
+ * gave 1706-1849 m/s for 1539-1607 m/s layers): a Vs estimate needs the wider, safer band.
+ */
+export const SATURATED_VP_MAX = 2000;
+
+/** Whether a P layer's velocity may be that of saturated soil, for the Vs estimate. */
+function maybeSaturated(velocity: number): boolean {
+  return velocity >= WATER_TABLE_VP_MIN && velocity <= SATURATED_VP_MAX;
+}
 
 /** Half-width of the range a Poisson's ratio is drawn from uniformly in the Monte Carlo, by default. */
 export const POISSON_HALF_WIDTH = 0.05;
@@ -54,7 +68,7 @@ export function siteInputFromInterpretation(
 /**
  * The site-assessment input of an interpretation, with the per-layer Vs profile. On a P line,
  * Vs is had from Vp only where it can be: never through a layer whose Vp lies in the band of
- * saturated soil (1450-1650 m/s) nor through a layer below it (below the water table Vp follows
+ * saturated soil (1450-2000 m/s, SATURATED_VP_MAX) nor through a layer below it (below the water table Vp follows
  * the pore water, about 1480-1500 m/s, whatever the soil's stiffness: common practice), unless
  * the user gives that layer's own Poisson's ratio or Vs. Otherwise no input, and `refused` says
  * why and what to provide.
@@ -94,10 +108,10 @@ function refusal(missing: VsLayer[]): SiText {
   const below = missing.filter((l) => l.saturated === 'below-water-table');
   const names = (list: VsLayer[]) => list.map((l) => l.index).join(', ');
   const example = missing[0].index;
-  const inBand = band.length > 0 ? si`layer${band.length > 1 ? 's' : ''} ${names(band)} (Vp ${vel(band.map((l) => l.vp!))}) ${band.length > 1 ? 'lie' : 'lies'} in the band of saturated soil` : si``;
+  const inBand = band.length > 0 ? si`layer${band.length > 1 ? 's' : ''} ${names(band)} (Vp ${vel(band.map((l) => l.vp!))}) ${band.length > 1 ? 'lie' : 'lies'} in the range of saturated soil` : si``;
   const under = below.length > 0 ? si`${band.length > 0 ? ' and ' : ''}layer${below.length > 1 ? 's' : ''} ${names(below)} ${below.length > 1 ? 'lie' : 'lies'} below the water table` : si``;
   const head = si`no site class is estimated from Vp: `;
-  const tail = si` (a P-wave velocity of ${vel([WATER_TABLE_VP_MIN, WATER_TABLE_VP_MAX], 0, '-')} marks the water table). Below the water table Vp follows the pore water rather than the soil, so one Poisson's ratio for every layer cannot turn it into a Vs. Give each such layer its own value from a boring or a downhole test (for example --layer-poisson ${example}:0.45 or --layer-vs ${example}:250), or shoot an S-wave line`;
+  const tail = si` (a P-wave velocity of ${vel([WATER_TABLE_VP_MIN, SATURATED_VP_MAX], 0, '-')} may be saturated soil, the water table at its top). Below the water table Vp follows the pore water rather than the soil, so one Poisson's ratio for every layer cannot turn it into a Vs. Give each such layer its own value from a boring or a downhole test (for example --layer-poisson ${example}:0.45 or --layer-vs ${example}:250), or shoot an S-wave line`;
   const pieces = [head, inBand, under, tail];
   return { text: pieces.map((p) => p.text).join(''), parts: pieces.flatMap((p) => p.parts) };
 }
@@ -120,9 +134,9 @@ function vsFromVpLayers(options: VsFromVpOptions, layers: Layer[], file: string)
   }
   if (global === undefined && Object.keys(ownPoisson).length === 0 && Object.keys(ownVs).length === 0) return undefined;
   const half = options.poissonHalfWidth ?? POISSON_HALF_WIDTH;
-  const wet = layers.findIndex((l) => inWaterBand(l.velocity));
+  const wet = layers.findIndex((l) => maybeSaturated(l.velocity));
   return layers.map((layer, i): VsLayer => {
-    const saturated: VsLayer['saturated'] = wet >= 0 && i >= wet ? (i === wet || inWaterBand(layer.velocity) ? 'water-band' : 'below-water-table') : undefined;
+    const saturated: VsLayer['saturated'] = wet >= 0 && i >= wet ? (i === wet || maybeSaturated(layer.velocity) ? 'water-band' : 'below-water-table') : undefined;
     const base = { index: layer.index, vp: layer.velocity, vpSe: layer.velocitySe, ...(saturated ? { saturated } : {}) } as const;
     const vs = ownVs[layer.index];
     if (vs !== undefined) {

@@ -23,7 +23,7 @@ describe('planSite on a P line across a water table', () => {
     expect(refused.vsLayers.map((l) => l.basis)).toEqual(['poisson', 'not-estimated', 'not-estimated']);
     expect(refused.vsLayers.map((l) => l.saturated)).toEqual([undefined, 'water-band', 'below-water-table']);
     const warning = result.warnings.find((w) => w.code === 'vs-from-vp-saturated')!;
-    expect(warning.message).toMatch(/layer 2 \(Vp 15\d\d m\/s\) lies in the band of saturated soil and layer 3 lies below the water table/);
+    expect(warning.message).toMatch(/layer 2 \(Vp 15\d\d m\/s\) lies in the range of saturated soil and layer 3 lies below the water table/);
     expect(warning.message).toMatch(/--layer-poisson 2:0\.45 or --layer-vs 2:250/);
   });
 
@@ -100,5 +100,19 @@ describe('planSite rejects what it cannot use', () => {
     const { result } = interpretCsv(dryCsv);
     expect(() => planSite(result, [0, 2], { poisson: [0.3], layerVs: { 2: { velocity: 3500, se: 0 } } })).toThrow(/--layer-vs 2:3500 m\/s: expected a shear-wave velocity above 0 and below the layer's Vp, (29|30)\d\d m\/s/);
     expect(() => planSite(result, [0, 2], { poisson: [0.3], layerPoisson: { 5: 0.4 } })).toThrow(/--layer-poisson 5:\.\.\.: this line has no layer 5; expected a layer from 1 to 2/);
+  });
+});
+
+describe('planSite and a saturated layer fitted fast', () => {
+  it('planSite treats a fitted Vp of 1750 m/s as possibly saturated soil (1450-2000 m/s, common practice) and asks for its own value', () => {
+    // Forward-model lines gave 1706-1849 m/s for saturated layers of 1539-1607 m/s; the water-table
+    // warning's band (1450-1650 m/s) would miss them.
+    const layer = (index: number, velocity: number) => ({ index, velocity, velocitySe: 20, reversed: true, segmentCount: 2 });
+    const refractor = (depth: number) => ({ index: 1, points: [0, 10].map((x) => ({ x, depth, depthSe: 0.1, elev: 100 - depth })) });
+    const plan = planSite({ file: 'x.csv', wave: 'P', layers: [layer(1, 400), layer(2, 1750), layer(3, 3500)], refractors: [refractor(3), refractor(12)] } as never, [0, 5, 10], { poisson: [0.3] });
+    expect(plan.input).toBeUndefined();
+    expect(plan.vsLayers!.map((l) => l.saturated)).toEqual([undefined, 'water-band', 'below-water-table']);
+    const dry = planSite({ file: 'x.csv', wave: 'P', layers: [layer(1, 400), layer(2, 2100)], refractors: [refractor(3)] } as never, [0, 5, 10], { poisson: [0.3] });
+    expect(dry.input).toBeDefined();
   });
 });
