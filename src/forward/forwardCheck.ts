@@ -60,3 +60,25 @@ export function forwardCheck(fits: BranchFit[], layers: Layer[], refractors: { p
   if (count === 0) return undefined;
   return { rms: Math.sqrt(sum / count), worst, picks: count };
 }
+
+/**
+ * Floor of the forward-misfit threshold, in seconds: the interpreted section is built from depths
+ * at the geophones joined by straight lines and velocities with their own errors, so even a sound
+ * interpretation leaves a few tenths of a millisecond over the pick noise (measured on
+ * forward-model lines, test/reference/sweep).
+ */
+export const MISFIT_FLOOR = 0.3e-3;
+/** The RMS may reach this multiple of the pick noise on a sound interpretation (same sweep). */
+export const MISFIT_RATIO = 2;
+
+/**
+ * Whether the forward check shows a misfit: its RMS above max(MISFIT_RATIO σ, σ + MISFIT_FLOOR),
+ * σ the pick noise measured from the picks themselves (model/pickNoise.ts), never from a model's
+ * residuals, which relief or a wrong layer inflate.
+ *
+ * @param rms - forward-check RMS, in seconds
+ * @param noise - pick noise σ, in seconds
+ */
+export function isForwardMisfit(rms: number, noise: number): boolean {
+  return rms > Math.max(MISFIT_RATIO * noise, noise + MISFIT_FLOOR);
+}

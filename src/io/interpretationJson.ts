@@ -3,6 +3,7 @@ import { round } from './numbers.js';
 import type { InterpretationResult } from '../interpret.js';
 import { VERSION } from '../interpret.js';
 import { siteJson, siteNotClassifiedJson } from './siteJson.js';
+import { COUNT_CRITERION, type JointModel } from '../model/jointModel.js';
 
 /** Version tag of the JSON document; change it when a stable field changes meaning. */
 export const INTERPRETATION_SCHEMA = 'hammerline/interpretation@1';
@@ -33,6 +34,26 @@ function branch(fit: BranchFit) {
     residual_sd_ms: round(fit.residualSd * 1e3, 3),
     segments_chosen_by: fit.chosenBy === 'user' ? 'user' : 'BIC',
     bic_by_segment_count: fit.criterionBySegments.map((b) => round(b, 2)),
+  };
+}
+
+/** The joint model of all shots: how the layer count was chosen, its iterations and possible refractors. */
+function modelJson(joint: JointModel) {
+  return {
+    method: 'time terms (Scheidegger & Willmore 1957; Willmore & Bancroft 1960)',
+    refractors: joint.refractors,
+    iterations: joint.iterations,
+    converged: joint.converged,
+    reassigned_picks: joint.reassigned,
+    residual_sd_ms: round(joint.model.sigma * 1e3, 3),
+    refractor_count_criterion: {
+      name: COUNT_CRITERION,
+      values: joint.candidates.map((c) => ({ refractors: c.refractors, value: round(c.value, 2) ?? null, parameters: c.parameters, rss_ms2: round(c.rss * 1e6, 4), ...(c.rejected ? { rejected: c.rejected } : {}) })),
+    },
+    possible_refractors: joint.possible.map((p) => ({
+      below_layer: p.index, velocity_mps: round(p.velocity, 1), velocity_se_mps: round(p.velocitySe, 1), picks: p.picks, sources: p.sources,
+      reversed: p.reversed, delta_criterion: round(p.deltaBic, 2), failed: p.failed,
+    })),
   };
 }
 
@@ -74,6 +95,7 @@ export function interpretationJson(result: InterpretationResult, extra: Record<s
         },
       } : {}),
     })),
+    ...(result.joint ? { model: modelJson(result.joint) } : {}),
     branches: result.fits.map(branch),
     ...(result.pLineCheck ? {
       p_line_check: {
@@ -90,6 +112,13 @@ export function interpretationJson(result: InterpretationResult, extra: Record<s
       picks_used: result.picksUsed,
       picks_total: result.picksTotal,
       forward_rms_ms: result.forward ? round(result.forward.rms * 1e3, 3) : null,
+      pick_noise_ms: round(result.pickNoise.sigma * 1e3, 3),
+      pick_noise_source: result.pickNoise.source,
+      pick_noise_estimates: {
+        ...(result.pickNoise.secondDifferences ? { second_differences: { sigma_ms: round(result.pickNoise.secondDifferences.sigma * 1e3, 3), triples: result.pickNoise.secondDifferences.count } } : {}),
+        ...(result.pickNoise.reciprocal ? { reciprocal_times: { sigma_ms: round(result.pickNoise.reciprocal.sigma * 1e3, 3), pairs: result.pickNoise.reciprocal.count } } : {}),
+        ...(result.pickNoise.confidence ? { confidence: { median: round(result.pickNoise.confidence.median, 3), picks: result.pickNoise.confidence.count } } : {}),
+      },
       ...(result.forward ? { forward_worst: { difference_ms: round(result.forward.worst.difference * 1e3, 3), source_id: result.forward.worst.sourceId, receiver_x_m: result.forward.worst.receiverX } } : {}),
       reciprocal: result.reciprocal.map((c) => ({
         source_a: c.sourceA, source_b: c.sourceB,

@@ -30,6 +30,12 @@ export interface TimeTermOptions {
   smoothing?: number;
   /** Compute the standard errors of the slownesses (one extra solve each); default true. */
   errors?: boolean;
+  /**
+   * Slownesses held fixed (s/m, with their standard errors), by layer (0 = direct wave): a
+   * refractor whose receivers are each recorded from one direction only leaves its slowness to
+   * trade with a trend of its time terms, so it is given from elsewhere.
+   */
+  held?: ({ slowness: number; se: number } | undefined)[];
 }
 
 /**
@@ -40,7 +46,7 @@ export interface TimeTermOptions {
  * neighbours instead of taking up that one pick's noise alone. Our choice, checked on forward-model
  * lines (test/model/jointModel.test.ts).
  */
-export const SMOOTHING_WEIGHT = 0.1;
+export const SMOOTHING_WEIGHT = 1;
 
 /**
  * Weight of the rows tying the delay of a source inside the spread to the receiver delay at its
@@ -117,12 +123,16 @@ export function solveTimeTerms(geometry: ModelGeometry, picks: ModelPick[], arri
   }
   const matrix = new SparseRows(columns);
   let used = 0;
+  const held = options.held ?? [];
   picks.forEach((p, i) => {
     const k = arrival[i];
     if (k < 0) return;
     used++;
-    if (k === 0) matrix.add([[0, p.distance]], p.time);
-    else matrix.add([[k, p.offset], [sourceColumn[k - 1][p.source], 1], [receiverColumn[k - 1][p.receiver], 1]], p.time);
+    const distance = k === 0 ? p.distance : p.offset;
+    const slownessEntry: [number, number][] = held[k] ? [] : [[k, distance]];
+    const target = held[k] ? p.time - distance * held[k]!.slowness : p.time;
+    if (k === 0) matrix.add(slownessEntry, target);
+    else matrix.add([...slownessEntry, [sourceColumn[k - 1][p.source], 1], [receiverColumn[k - 1][p.receiver], 1]], target);
   });
   if (used === 0) return undefined;
   let constraints = 0;
@@ -175,10 +185,11 @@ export function solveTimeTerms(geometry: ModelGeometry, picks: ModelPick[], arri
     rss += residual * residual;
     row++;
   });
-  const parameters = columns - constraints;
+  const parameters = columns - constraints - held.filter((h) => h !== undefined).length;
   const sigma = Math.sqrt(rss / Math.max(1, used - parameters));
-  const slowness = Array.from(solution.subarray(0, refractors + 1));
+  const slowness = Array.from(solution.subarray(0, refractors + 1), (u, j) => held[j]?.slowness ?? u);
   const slownessSe = slowness.map((_, j) => {
+    if (held[j]) return held[j]!.se;
     if (options.errors === false) return NaN;
     const inverse = inverseDiagonal(operator, j);
     return Number.isFinite(inverse) ? sigma * Math.sqrt(inverse) * scales[j] : Infinity;

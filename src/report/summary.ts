@@ -29,7 +29,9 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
   out.push(`${result.wave}-wave line, ${count(result.fits.length, 'branch', 'branches')} from ${count(new Set(result.fits.map((f) => f.branch.sourceId)).size, 'source')}, ${result.picksUsed} of ${count(result.picksTotal, 'pick')} used (${count(outliers, 'outlier')} left out), line-fit RMS ${(result.fitRmsSeconds * 1e3).toFixed(2)} ms`);
   if (result.records?.length) out.push(`Picks: ${result.wave === 'S' ? 'S-wave onsets (the shear arrival after the P)' : 'first breaks'} picked automatically from ${result.records.length} shot record${result.records.length > 1 ? 's' : ''}`);
   out.push('');
-  out.push(`Layers (velocity ± standard error; true velocity and dip from forward and reverse branches)`);
+  out.push(result.joint
+    ? `Layers (velocity ± standard error; one model of all shots with a delay time per geophone and per source, ${result.joint.refractors} refractor${result.joint.refractors === 1 ? '' : 's'} chosen by the information criterion; dip from forward and reverse branches)`
+    : `Layers (velocity ± standard error; true velocity and dip from forward and reverse branches)`);
   pushAll(out, table(
     ['layer', `velocity (${vLabel})`, 'dip of top (deg)', 'seen by'],
     result.layers.map((l) => [
@@ -72,6 +74,11 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
     for (const w of qualifying) out.push(`  ! [${w.code}] ${displayText(w, unit)}`);
     out.push('');
   }
+  for (const p of result.joint?.possible ?? []) {
+    out.push(`Possible refractor below layer ${p.index}: about ${Math.round(vel(p.velocity))} ± ${Math.round(vel(p.velocitySe))} ${vLabel}, from ${p.picks} picks of ${p.sources.join(', ')}; no depths (${p.failed.join('; ')})`, '');
+  }
+  const noise = result.pickNoise;
+  out.push(`Pick noise: ${(noise.sigma * 1e3).toFixed(2)} ms, from the ${noise.source} of the picks${noise.reciprocal && noise.source !== 'reciprocal times' ? `; reciprocal times give ${(noise.reciprocal.sigma * 1e3).toFixed(2)} ms over ${noise.reciprocal.count} pair${noise.reciprocal.count === 1 ? '' : 's'}` : ''}`);
   if (result.forward) {
     out.push(`Forward check: first arrivals computed through the interpreted section match the ${count(result.forward.picks, 'pick')} to ${(result.forward.rms * 1e3).toFixed(2)} ms RMS (worst ${(result.forward.worst.difference * 1e3).toFixed(2)} ms, source ${result.forward.worst.sourceId} at x = ${len(result.forward.worst.receiverX).toFixed(2)} ${unit})`);
   }
