@@ -12,7 +12,6 @@ import { fitLine } from './fit/fitLine.js';
 import { forwardCheck, isForwardMisfit, type ForwardCheck } from './forward/forwardCheck.js';
 import { linearAt } from './core/interpolate.js';
 import { assignLayers, layerVelocities } from './fit/layers.js';
-import { jointLayers } from './model/jointLayers.js';
 import { COUNT_CRITERION, jointModel, type JointModel } from './model/jointModel.js';
 import { pickNoise as estimatePickNoise, type PickNoise } from './model/pickNoise.js';
 import { planSite, type VsFromVpOptions } from './site/fromInterpretation.js';
@@ -92,7 +91,8 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   const fits = joint?.fits ?? segmentFits;
   let layers: Layer[];
   if (joint !== undefined) {
-    layers = jointLayers(joint, layerVelocities(fits, joint.refractors + 1, log), layerVelocities(segmentFits, layerCount, new WarningLog()));
+    // Velocities by the plane-layer formulas over the joint assignment (see timeTermVelocities for why).
+    layers = layerVelocities(fits, joint.refractors + 1, log);
     for (const p of joint.possible) {
       log.add('possible-refractor',
         si`a refractor of about ${vel(p.velocity)} ± ${vel(p.velocitySe)} below layer ${p.index} is suggested by ${p.picks} picks of source${p.sources.length > 1 ? 's' : ''} ${p.sources.join(', ')}, but the evidence is too thin for depths (${p.failed.join('; ')}): it is reported as possible, without depths, and its picks are left out of the layers above. Shoot farther off both ends, or lengthen the spread, to confirm it`,
@@ -110,7 +110,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   } else {
     layers = layerVelocities(fits, layerCount, log);
   }
-  history.push({ step: 'layers', parameters: { layers: layers.length, receiver_spacing_m: Number(spacing.toFixed(3)), true_velocity: joint ? 'joint model of all shots (shared slowness per layer)' : 'Johnson 1976 plane dipping layers (up/down-dip)' } });
+  history.push({ step: 'layers', parameters: { layers: layers.length, receiver_spacing_m: Number(spacing.toFixed(3)), true_velocity: joint ? 'Johnson 1976 plane dipping layers (up/down-dip) over the joint assignment' : 'Johnson 1976 plane dipping layers (up/down-dip)' } });
   checkLayerCautions(layers, wave, log);
   checkShearTopLayer(layers, wave, log);
 

@@ -4,6 +4,7 @@ import type { InterpretationResult } from '../interpret.js';
 import { VERSION } from '../interpret.js';
 import { siteJson, siteNotClassifiedJson } from './siteJson.js';
 import { COUNT_CRITERION, type JointModel } from '../model/jointModel.js';
+import { timeTermVelocities } from '../model/timeTermVelocities.js';
 
 /** Version tag of the JSON document; change it when a stable field changes meaning. */
 export const INTERPRETATION_SCHEMA = 'hammerline/interpretation@1';
@@ -38,7 +39,7 @@ function branch(fit: BranchFit) {
 }
 
 /** The joint model of all shots: how the layer count was chosen, its iterations and possible refractors. */
-function modelJson(joint: JointModel) {
+function modelJson(joint: JointModel, layers: InterpretationResult['layers']) {
   return {
     method: 'time terms (Scheidegger & Willmore 1957; Willmore & Bancroft 1960)',
     refractors: joint.refractors,
@@ -46,6 +47,7 @@ function modelJson(joint: JointModel) {
     converged: joint.converged,
     reassigned_picks: joint.reassigned,
     residual_sd_ms: round(joint.model.sigma * 1e3, 3),
+    time_term_velocities: timeTermVelocities(joint, layers).map((v) => ({ index: v.index, velocity_mps: round(v.velocity, 1), velocity_se_mps: round(v.velocitySe, 1) })),
     refractor_count_criterion: {
       name: COUNT_CRITERION,
       values: joint.candidates.map((c) => ({ refractors: c.refractors, value: round(c.value, 2) ?? null, parameters: c.parameters, rss_ms2: round(c.rss * 1e6, 4), ...(c.rejected ? { rejected: c.rejected } : {}) })),
@@ -95,7 +97,7 @@ export function interpretationJson(result: InterpretationResult, extra: Record<s
         },
       } : {}),
     })),
-    ...(result.joint ? { model: modelJson(result.joint) } : {}),
+    ...(result.joint ? { model: modelJson(result.joint, result.layers) } : {}),
     branches: result.fits.map(branch),
     ...(result.pLineCheck ? {
       p_line_check: {

@@ -340,7 +340,8 @@ function observations(fits: BranchFit[], spacing: number) {
 }
 
 /**
- * The fits rebuilt on the joint assignment: each branch's segments are its runs of one arrival
+ * The fits rebuilt on the joint assignment (a branch whose picks all keep their arrival keeps its
+ * fit): each changed branch's segments are its runs of one arrival
  * (layer = arrival + 1), each with its own least-squares line (slope and intercept with standard
  * errors from the branch's joint-model residual deviation), so the depth methods and the
  * travel-time plot read the joint model's assignment.
@@ -359,6 +360,9 @@ function rebuildFits(fits: BranchFit[], arrival: Int8Array, refs: { fit: number;
   });
   return fits.map((f, fi) => {
     const labels = labelOf[fi];
+    // A branch whose picks keep the segments' arrivals keeps its segments (and their hinge fits).
+    const unchanged = f.branch.picks.every((_, i) => labels[i] < 0 || f.segments.some((s) => i >= s.start && i < s.end && s.layer === labels[i] + 1));
+    if (unchanged) return f;
     // Outliers (no label) take the label of the pick before them, or after them at the start.
     for (let i = 0; i < labels.length; i++) if (labels[i] < 0 && i > 0) labels[i] = labels[i - 1];
     for (let i = labels.length - 1; i >= 0; i--) if (labels[i] < 0 && i + 1 < labels.length) labels[i] = labels[i + 1];
