@@ -130,7 +130,7 @@ export function refractorProfiles(input: ProfileInput, warnings: WarningLog): Re
     byMethod['intercept-time'] = input.interceptPoints[n - 1] ?? [];
 
     const irregular = methodInfo['GRM']?.optimum_xy_basis === 'velocity analysis';
-    const recommended = recommend(byMethod, irregular);
+    const recommended = recommend(withoutUnconfirmed(n, byMethod, warnings), irregular);
     const { points, pointMethods } = fillGaps(recommended.points, recommended.pointMethods, receivers, elevation, n, warnings);
     const method = pointMethods.length === 0 ? 'none' : [...new Set(pointMethods)].join(' + ');
     result.push({ index: n, method, points, pointMethods, byMethod, methodInfo, hiddenLayer: hidden(input.fits, layers, n) });
@@ -138,6 +138,42 @@ export function refractorProfiles(input: ProfileInput, warnings: WarningLog): Re
     coverageGaps(n, points, receivers, warnings);
   }
   return result;
+}
+
+/** A profile this far from the intercept-time depths under most of the sources it covers is not recommended. */
+export const CONFIRM_METRES = 1;
+export const CONFIRM_FRACTION = 0.2;
+
+/**
+ * The methods fit to be recommended: a delay-time, GRM or plus-minus profile is checked against
+ * the intercept-time depths under the sources (Telford et al. 1990 §4.3: the same picks, a
+ * different reduction). Where it differs from them by more than max(CONFIRM_METRES,
+ * CONFIRM_FRACTION of the depth) under most of the sources it covers, it is kept in
+ * byMethod as a check but not recommended, and a warning says so. This catches a time-term
+ * solution that one-sided coverage has left free to shift by a constant.
+ */
+function withoutUnconfirmed(n: number, byMethod: Record<string, RefractorPoint[]>, warnings: WarningLog): Record<string, RefractorPoint[]> {
+  const sources = byMethod['intercept-time'] ?? [];
+  const kept: Record<string, RefractorPoint[]> = { ...byMethod };
+  for (const method of ['delay-time', 'GRM', 'plus-minus']) {
+    const points = byMethod[method];
+    if (points === undefined || points.length === 0) continue;
+    let compared = 0;
+    const apart: { x: number; depth: number; intercept: number }[] = [];
+    for (const source of sources) {
+      const at = depthAt(points, source.x);
+      if (at === undefined || !Number.isFinite(source.depth)) continue;
+      compared++;
+      if (Math.abs(at.depth - source.depth) > Math.max(CONFIRM_METRES, CONFIRM_FRACTION * source.depth)) apart.push({ x: source.x, depth: at.depth, intercept: source.depth });
+    }
+    if (compared >= 1 && apart.length * 2 > compared) {
+      delete kept[method];
+      warnings.add('method-unconfirmed',
+        `refractor ${n}: the ${method} depths differ from the intercept-time depths under ${apart.length} of the ${compared} sources they reach (${apart.slice(0, 4).map((a) => `x = ${a.x} m: ${a.depth.toFixed(1)} against ${a.intercept.toFixed(1)} m`).join('; ')}), by more than ${CONFIRM_METRES} m or ${CONFIRM_FRACTION * 100} %: the ${method} profile is not recommended; it is kept with the other methods for comparison. Check the coverage of this refractor and the picks`,
+        { layer: n + 1 });
+    }
+  }
+  return kept;
 }
 
 /**
