@@ -10,6 +10,8 @@ import { splitBranches } from './fit/branches.js';
 import type { BranchChoices } from './fit/fitBranches.js';
 import { fitLine } from './fit/fitLine.js';
 import { forwardCheck, isForwardMisfit, type ForwardCheck } from './forward/forwardCheck.js';
+import type { LayeredInversionOptions } from './model/layeredInversion.js';
+import { KEEP_MARGIN, KEEP_MARGIN_SECONDS, refineByInversion, type InversionSummary } from './model/refineByInversion.js';
 import { linearAt } from './core/interpolate.js';
 import { assignLayers, layerVelocities } from './fit/layers.js';
 import { COUNT_CRITERION, jointModel, type JointModel } from './model/jointModel.js';
@@ -39,6 +41,12 @@ export interface InterpretOptions extends BranchChoices {
    * per-branch segments.
    */
   jointModel?: boolean;
+  /**
+   * The layered inversion that refines the depth profiles and layer velocities against every pick
+   * (model/layeredInversion): its options (smoothing, node spacing, lateral velocity gradient), or
+   * false to switch it off. Default on, with the defaults of LayeredInversionOptions.
+   */
+  inversion?: false | LayeredInversionOptions;
 }
 
 export interface InterpretationResult extends Interpretation {
@@ -60,6 +68,8 @@ export interface InterpretationResult extends Interpretation {
   joint?: JointModel;
   /** Pick noise from the picks themselves (second differences, reciprocal times). */
   pickNoise: PickNoise;
+  /** What the layered inversion did (undefined when switched off or when there is no refractor). */
+  inversion?: InversionSummary;
 }
 
 /**
@@ -121,6 +131,11 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   const pickNoise = lineFitRms(segmentFits);
   const reciprocal = reciprocalChecks(fits, pickNoise, log);
   const refractors: RefractorMethods[] = refractorProfiles({ fits, layers: usable, interceptPoints: intercept, receivers, spacing, pickNoise }, log);
+  // The layered inversion: kept (and recommended) only when it explains the picks better.
+  const inversion = refineByInversion({ fits, layers: usable, refractors, receivers, spacing, wave }, options.inversion, log);
+  if (inversion !== undefined) {
+    history.push({ step: 'inversion', parameters: { method: 'Levenberg-Marquardt (Levenberg 1944; Marquardt 1963)', kept: inversion.kept, smoothing: inversion.smoothing, node_spacing_m: inversion.nodeSpacing, lateral_gradient: inversion.lateralGradient, iterations: inversion.iterations, keep_margin: `RMS lower by ${KEEP_MARGIN * 100} % and ${KEEP_MARGIN_SECONDS * 1e3} ms`, time_shift: inversion.timeShift !== undefined } });
+  }
   const groundXs = receivers.map((r) => r.x);
   const receiverElevs = receivers.map((r) => r.elev);
   const ground = (x: number) => linearAt(groundXs, receiverElevs, x);
@@ -167,6 +182,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     ...(options.records ? { records: options.records } : {}),
     joint,
     pickNoise: noise,
+    inversion,
   };
 }
 

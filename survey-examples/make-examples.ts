@@ -122,3 +122,52 @@ for (const example of examples) {
   });
   process.stdout.write(`wrote ${example.sources.length} records in ${folder.pathname}\n`);
 }
+
+// Line VC-3 at the invented Velmoor Brook culvert (see velmoor-culvert/README.md): a water table
+// over undulating rock, sources off both ends, records that carry station numbers only (no
+// positions), placed on the line by the station table. 36 channels at 2.5 m; 0.25 ms sampling
+// with 5 ms of pre-trigger; first arrival a causal 60 Hz wavelet at the forward-model time,
+// signal-to-noise falling with offset from about 34 to 4.
+{
+  const ground = (x: number) => 61.0 - 0.01 * x + 0.35 * Math.sin((2 * Math.PI * x) / 55);
+  const waterTable = 58.3;
+  const rockDepth = (x: number) => 9.5 + 2.0 * Math.sin((2 * Math.PI * (x - 15)) / 65);
+  const section: LayeredSection = {
+    surface: ground,
+    interfaces: [() => waterTable, (x) => ground(x) - rockDepth(x)],
+    velocities: [430, 1500, 3100],
+  };
+  const receivers = Array.from({ length: 36 }, (_, i) => i * 2.5);
+  const sources = [-42.5, 0, 30, 45, 57.5, 87.5, 130];
+  const station = (x: number) => 100 + Math.round(x / 2.5);
+  const root = new URL('./velmoor-culvert/', import.meta.url);
+  const folder = new URL('./velmoor-culvert/records/', import.meta.url);
+  mkdirSync(folder, { recursive: true });
+  const stationRows = ['station,x,elev'];
+  for (let x = -42.5; x <= 130; x += 2.5) stationRows.push(`${station(x)},${x},${ground(x).toFixed(3)}`);
+  writeFileSync(new URL('stations.csv', root), '# Invented example: line VC-3, Velmoor Brook culvert (fictional). Station numbers every 2.5 m; x along the line and ground elevation in metres.\n' + stationRows.join('\n') + '\n');
+  const dt = 0.00025;
+  const delay = -0.005;
+  const samples = 480;
+  sources.forEach((sx, s) => {
+    const times = firstArrivals(section, sx, receivers, [Math.min(...sources) - 5, Math.max(...sources) + 5]);
+    const traces = receivers.map((rx, r) => {
+      const offset = Math.abs(rx - sx);
+      const snr = 30 * Math.exp(-offset / 45) + 4;
+      const data = causalTrace(samples, dt, delay, times[r], snr, 5000 + 100 * s + r);
+      const keywords: [string, string][] = [
+        ['CHANNEL_NUMBER', String(r + 1)],
+        ['SAMPLE_INTERVAL', String(dt)],
+        ['DELAY', String(delay)],
+        ['DESCALING_FACTOR', '0.001'],
+        ['SOURCE_STATION_NUMBER', String(station(sx))],
+        ['RECEIVER_STATION_NUMBER', String(station(rx))],
+        ['STACK', '6'],
+      ];
+      return { code: 2 as const, keywords, samples: Array.from(data, (v) => Math.round(v * 1000)) };
+    });
+    const bytes = writeSeg2(traces, { fileKeywords: [['UNITS', 'METERS'], ['NOTE', 'Invented example: line VC-3, Velmoor Brook culvert (fictional). Synthetic record.']] });
+    writeFileSync(new URL(`VC3-${String(s + 1).padStart(2, '0')}.seg2`, folder), bytes);
+  });
+  process.stdout.write(`wrote ${sources.length} records and the station table in ${root.pathname}\n`);
+}

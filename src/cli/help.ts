@@ -1,4 +1,5 @@
 import { VERSION } from '../interpret.js';
+import { DEFAULT_SMOOTHING } from '../model/layeredInversion.js';
 
 const HEADER = `hammerline ${VERSION}: seismic-refraction interpretation for shallow site investigation
 
@@ -17,7 +18,8 @@ Usage:
 const INTERPRET = `interpret: reads first-break tables (CSV: source_id, source_x, source_elev, receiver_x,
 receiver_elev, time_ms or time_s, optional wave) or SEG-2 records, and prints layer velocities with
 their standard errors, the depth to each refractor under every geophone (plus-minus, GRM and
-delay-time; intercept-time under the sources), reciprocal times, a forward check of the section,
+delay-time; intercept-time under the sources; the layered inversion, recommended when it fits
+the picks better), reciprocal times, a forward check of the section,
 the site class where it can be had, and every warning and caution.
 
 Options for interpret:
@@ -39,6 +41,16 @@ Options for interpret:
   --through-origin         force the direct-wave segment through the origin (common practice
                            where the trigger is sound)
   --allow-short-branches   leave out sides of a source with fewer than 3 picks instead of stopping
+  --no-inversion           keep the depths of the delay-time methods: no layered inversion
+                           (by default refractor depths and layer velocities are refined until
+                           first arrivals through the section fit every pick, off-end shots
+                           included, and kept when that lowers the RMS misfit by 5 % and by
+                           0.03 ms or more)
+  --inversion-smoothing W  smoothness weight of the refractors in the inversion (default ${DEFAULT_SMOOTHING};
+                           0 follows every pick, larger is smoother)
+  --inversion-nodes D      spacing of the refractor nodes in the inversion, in the input unit
+                           (default the geophone spacing)
+  --lateral-gradient       let each layer's velocity change linearly along the line
   -q, --quiet              no progress messages on stderr
   --accept-velocities      read times and lengths as given even where their median apparent
                            velocity lies outside what the ground gives (P 50-8000 m/s, S 30-5000

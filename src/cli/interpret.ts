@@ -18,6 +18,7 @@ import type { RecordGroup } from '../picking/pickRecords.js';
 import { round } from '../io/numbers.js';
 import { toMetres } from '../core/units.js';
 import { pushAll } from '../core/extent.js';
+import { DEFAULT_SMOOTHING } from '../model/layeredInversion.js';
 
 /** Options of interpret that choose how a line is interpreted; report accepts the same. */
 export const INTERPRET_OPTIONS = {
@@ -28,6 +29,10 @@ export const INTERPRET_OPTIONS = {
   'max-segments': { type: 'string' },
   'through-origin': { type: 'boolean' },
   'allow-short-branches': { type: 'boolean' },
+  'no-inversion': { type: 'boolean' },
+  'inversion-smoothing': { type: 'string' },
+  'inversion-nodes': { type: 'string' },
+  'lateral-gradient': { type: 'boolean' },
   quiet: { type: 'boolean', short: 'q' },
   help: { type: 'boolean', short: 'h' },
   'accept-velocities': { type: 'boolean' },
@@ -70,6 +75,7 @@ export function interpretChoices(values: Record<string, unknown>, io: CliIo): In
     allowShortBranches: Boolean(values['allow-short-branches']),
     site: siteOptions(values),
   };
+  options.inversion = inversionOptions(values, unit);
   if (values.poisson !== undefined && values['vp-vs'] !== undefined) throw new InputError({}, 'give --poisson or --vp-vs, not both');
   if (values.poisson !== undefined) options.vsFromVp = { poisson: listOption('poisson', values.poisson as string, "a Poisson's ratio from 0 to below 0.5") };
   if (values['vp-vs'] !== undefined) options.vsFromVp = { vpVs: listOption('vp-vs', values['vp-vs'] as string, 'a Vp/Vs ratio above 1.414') };
@@ -229,3 +235,24 @@ export function interpretCommand(args: string[], io: CliIo): number {
   return internalErrors > 0 ? 1 : failed > 0 ? 2 : 0;
 }
 
+/** The layered inversion's options from --no-inversion, --inversion-smoothing, --inversion-nodes and --lateral-gradient. */
+function inversionOptions(values: Record<string, unknown>, unit: LengthUnit): InterpretOptions['inversion'] {
+  const tuning = ['inversion-smoothing', 'inversion-nodes', 'lateral-gradient'].filter((name) => values[name] !== undefined);
+  if (values['no-inversion']) {
+    if (tuning.length > 0) throw new InputError({}, `--no-inversion switches the layered inversion off; --${tuning[0]} cannot be given with it`);
+    return false;
+  }
+  const options: NonNullable<Exclude<InterpretOptions['inversion'], false>> = {};
+  if (values['inversion-smoothing'] !== undefined) {
+    options.smoothing = numberOption('inversion-smoothing', values['inversion-smoothing'] as string, `a smoothing weight of 0 or more (default ${DEFAULT_SMOOTHING})`);
+    if (options.smoothing < 0) throw new InputError({}, `--inversion-smoothing ${values['inversion-smoothing'] as string}: expected a smoothing weight of 0 or more (default ${DEFAULT_SMOOTHING})`);
+  }
+  if (values['inversion-nodes'] !== undefined) {
+    const expected = `a node spacing in ${unit === 'ft' ? 'feet' : 'metres'}, above 0 (default the geophone spacing)`;
+    const spacing = numberOption('inversion-nodes', values['inversion-nodes'] as string, expected);
+    if (!(spacing > 0)) throw new InputError({}, `--inversion-nodes ${values['inversion-nodes'] as string}: expected ${expected}`);
+    options.nodeSpacing = toMetres(spacing, unit);
+  }
+  if (values['lateral-gradient']) options.lateralGradient = true;
+  return options;
+}

@@ -133,7 +133,7 @@ export function refractorProfiles(input: ProfileInput, warnings: WarningLog): Re
     const recommended = recommend(withoutUnconfirmed(n, byMethod, warnings), irregular);
     const { points, pointMethods } = fillGaps(recommended.points, recommended.pointMethods, receivers, elevation, n, warnings);
     const method = pointMethods.length === 0 ? 'none' : [...new Set(pointMethods)].join(' + ');
-    result.push({ index: n, method, points, pointMethods, byMethod, methodInfo, hiddenLayer: hidden(input.fits, layers, n) });
+    result.push({ index: n, method, points, pointMethods, byMethod, methodInfo, hiddenLayer: hiddenLayerOf(input.fits, layers, n) });
     disagreements(n, byMethod, warnings);
     coverageGaps(n, points, receivers, warnings);
   }
@@ -263,7 +263,7 @@ function coverageGaps(n: number, points: RefractorPoint[], receivers: { x: numbe
 }
 
 /** Soske's largest hidden layer above refractor n, for a hidden velocity at the geometric mean. */
-function hidden(fits: BranchFit[], layers: Layer[], n: number): HiddenLayerLimit | undefined {
+export function hiddenLayerOf(fits: BranchFit[], layers: Layer[], n: number): HiddenLayerLimit | undefined {
   const near = fits.filter((f) => f.segments.some((s) => s.layer === 1));
   const intercepts = (layer: number) => median(near.flatMap((f) => f.segments.filter((s) => s.layer === layer).map((s) => s.intercept)));
   const upper = n === 1 ? 0 : intercepts(n);

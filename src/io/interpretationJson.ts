@@ -5,6 +5,7 @@ import { VERSION } from '../interpret.js';
 import { siteJson, siteNotClassifiedJson } from './siteJson.js';
 import { COUNT_CRITERION, type JointModel } from '../model/jointModel.js';
 import { timeTermVelocities } from '../model/timeTermVelocities.js';
+import type { InversionSummary } from '../model/refineByInversion.js';
 
 /** Version tag of the JSON document; change it when a stable field changes meaning. */
 export const INTERPRETATION_SCHEMA = 'hammerline/interpretation@1';
@@ -56,6 +57,30 @@ function modelJson(joint: JointModel, layers: InterpretationResult['layers']) {
       below_layer: p.index, velocity_mps: round(p.velocity, 1), velocity_se_mps: round(p.velocitySe, 1), picks: p.picks, sources: p.sources,
       reversed: p.reversed, delta_criterion: round(p.deltaBic, 2), failed: p.failed,
     })),
+  };
+}
+
+/** qc.inversion: what the layered inversion did (README documents each field). */
+function inversionJson(inv: InversionSummary) {
+  const ms = (s: number | undefined) => (s === undefined ? null : round(s * 1e3, 3));
+  return {
+    kept: inv.kept,
+    reason: inv.reason,
+    rms_before_ms: ms(inv.rmsBefore),
+    rms_after_ms: ms(inv.rmsAfter),
+    iterations: inv.iterations,
+    stopped: inv.stopReason ?? null,
+    picks: inv.picks,
+    unknowns: inv.unknowns ?? null,
+    effective_unknowns: inv.effectiveUnknowns === undefined ? null : round(inv.effectiveUnknowns, 1),
+    smoothing: inv.smoothing,
+    node_spacing_m: round(inv.nodeSpacing, 3),
+    lateral_gradient: inv.lateralGradient,
+    start_velocities_mps: inv.startVelocities.map((v) => round(v, 1)),
+    velocities_mps: inv.velocities?.map((v) => round(v, 1)) ?? null,
+    velocity_ses_mps: inv.velocitySes?.map((v) => round(v, 1)) ?? null,
+    ...(inv.timeShift !== undefined ? { time_shift_ms: round(inv.timeShift * 1e3, 3), time_shift_se_ms: round((inv.timeShiftSe ?? NaN) * 1e3, 3) } : {}),
+    ...(inv.gradients ? { gradients_mps_per_m: inv.gradients.map((v) => round(v, 4)), gradient_ses_mps_per_m: inv.gradientSes?.map((v) => round(v, 4)) } : {}),
   };
 }
 
@@ -122,6 +147,7 @@ export function interpretationJson(result: InterpretationResult, extra: Record<s
         ...(result.pickNoise.confidence ? { confidence: { median: round(result.pickNoise.confidence.median, 3), picks: result.pickNoise.confidence.count } } : {}),
       },
       ...(result.forward ? { forward_worst: { difference_ms: round(result.forward.worst.difference * 1e3, 3), source_id: result.forward.worst.sourceId, receiver_x_m: result.forward.worst.receiverX } } : {}),
+      ...(result.inversion ? { inversion: inversionJson(result.inversion) } : {}),
       reciprocal: result.reciprocal.map((c) => ({
         source_a: c.sourceA, source_b: c.sourceB,
         time_ab_ms: round(c.timeAB * 1e3, 3), time_ba_ms: round(c.timeBA * 1e3, 3),

@@ -47,7 +47,13 @@ const REACH_THICKNESSES = 3;
  * ∂t/∂z₁ = (z₁ − z₂)/(L v), ∂t/∂v = −L/v², ∂t/∂g = −L (x̄ − x_ref)/v²; an elevation at a sample
  * passes to the two nodes around it with the interpolation weights.
  */
-export function sectionPaths(sampled: SampledNodeSection, shots: Shot[], derivatives = false, lateralGradient = false): SectionPaths {
+/** Buffers of the Jacobian rows, kept between calls (the rows of one call are views into them, valid until the next call with the same workspace). */
+export interface PathWorkspace {
+  index: Int32Array;
+  value: Float64Array;
+}
+
+export function sectionPaths(sampled: SampledNodeSection, shots: Shot[], derivatives = false, lateralGradient = false, workspace?: PathWorkspace): SectionPaths {
   const { section, xs, levels, owners, node, weight, step } = sampled;
   const count = xs.length;
   const refractors = levels.length;
@@ -68,6 +74,24 @@ export function sectionPaths(sampled: SampledNodeSection, shots: Shot[], derivat
       t[i] = Math.sqrt(step * step + dz * dz) * slownessAt(k + 1, (xs[i] + xs[i + 1]) / 2);
     }
     return t;
+  });
+  // Their derivatives: ∂t/∂z_i = (z_i − z_{i+1})/(L v) for the leg from sample i to i + 1, and
+  // ∂t/∂v = −L/v² (times x̄ − x_ref for the gradient).
+  const alongSlope = levels.map((z, k) => {
+    const d = new Float64Array(count - 1);
+    for (let i = 0; i + 1 < count; i++) {
+      const dz = z[i] - z[i + 1];
+      d[i] = (dz / Math.sqrt(step * step + dz * dz)) * slownessAt(k + 1, (xs[i] + xs[i + 1]) / 2);
+    }
+    return d;
+  });
+  const alongVelocity = levels.map((_, k) => {
+    const d = new Float64Array(count - 1);
+    for (let i = 0; i + 1 < count; i++) {
+      const s = slownessAt(k + 1, (xs[i] + xs[i + 1]) / 2);
+      d[i] = -along[k][i] * s;
+    }
+    return d;
   });
   // Leg times through layer j (1 ≤ j < refractors) from sample a of refractor j−1 to sample b of
   // refractor j, for |a − b| ≤ reach[j]: legTables[j][a·(2R+1) + (b − a + R)].
@@ -135,23 +159,36 @@ export function sectionPaths(sampled: SampledNodeSection, shots: Shot[], derivat
     if (lateralGradient) addTo(gradientBase + m, -length * (mid - xRef) * s * s);
     return length * s;
   };
-  const takeRow = (): SparseRow => {
+  // Rows are stored one after another in two growing buffers (compressed sparse rows) and handed
+  // out as views, which spares the collector thousands of small arrays per evaluation.
+  let indexBuffer = workspace?.index ?? new Int32Array(derivatives ? 1 << 16 : 0);
+  let valueBuffer = workspace?.value ?? new Float64Array(derivatives ? 1 << 16 : 0);
+  let filled = 0;
+  const rowEnds: number[] = [];
+  const takeRow = () => {
     const size = touchedList.length;
-    const index = new Int32Array(size);
-    const value = new Float64Array(size);
+    if (filled + size > indexBuffer.length) {
+      const grown = Math.max(2 * indexBuffer.length, filled + size, 1 << 16);
+      const index = new Int32Array(grown);
+      index.set(indexBuffer.subarray(0, filled));
+      const value = new Float64Array(grown);
+      value.set(valueBuffer.subarray(0, filled));
+      indexBuffer = index;
+      valueBuffer = value;
+    }
     for (let a = 0; a < size; a++) {
       const i = touchedList[a];
-      index[a] = i;
-      value[a] = scratch[i];
+      indexBuffer[filled + a] = i;
+      valueBuffer[filled + a] = scratch[i];
       scratch[i] = 0;
       touched[i] = 0;
     }
+    filled += size;
+    rowEnds.push(filled);
     touchedList.length = 0;
-    return { index, value };
   };
 
   const allTimes: Float64Array[] = [];
-  const allRows: SparseRow[][] = [];
   const head: Float64Array[] = new Array(refractors);
   const previous: Int32Array[] = levels.map(() => new Int32Array(count));
   const downFrom: Int32Array[] = levels.map(() => new Int32Array(count));
@@ -194,13 +231,12 @@ export function sectionPaths(sampled: SampledNodeSection, shots: Shot[], derivat
     }
     allTimes.push(times);
     if (!derivatives) continue;
-    const rows: SparseRow[] = [];
     for (let r = 0; r < n; r++) {
       const { x: rx, z: rz } = shot.receivers[r];
       const k0 = bestRefractor[r];
       if (k0 < 0) {
         leg(0, shot.x, shot.z, -1, 0, rx, rz, -1, 0);
-        rows.push(takeRow());
+        takeRow();
         continue;
       }
       // Up from the receiver to the refractor the head wave ran along.
@@ -215,11 +251,24 @@ export function sectionPaths(sampled: SampledNodeSection, shots: Shot[], derivat
       }
       // Along each refractor back to where the path entered it, and down from the one above.
       for (let k = k0; k >= 0; k--) {
+        const slope = alongSlope[k];
+        const dv = alongVelocity[k];
+        let velocitySum = 0;
+        let gradientSum = 0;
         while (previous[k][cur] >= 0) {
           const before = previous[k][cur];
-          leg(k + 1, xs[before], levels[k][before], k, before, xs[cur], levels[k][cur], k, cur);
+          // The leg between samples i and i + 1 (either way round): ∂t/∂z_i = −∂t/∂z_{i+1}.
+          const i = before < cur ? before : cur;
+          if (slope[i] !== 0) {
+            addElevation(k, i, slope[i]);
+            addElevation(k, i + 1, -slope[i]);
+          }
+          velocitySum += dv[i];
+          if (lateralGradient) gradientSum += dv[i] * ((xs[i] + xs[i + 1]) / 2 - xRef);
           cur = before;
         }
+        addTo(velocityBase + k + 1, velocitySum);
+        if (lateralGradient) addTo(gradientBase + k + 1, gradientSum);
         addCrossing(k, cur);
         if (k === 0) {
           leg(0, shot.x, shot.z, -1, 0, xs[cur], levels[0][cur], 0, cur);
@@ -230,11 +279,24 @@ export function sectionPaths(sampled: SampledNodeSection, shots: Shot[], derivat
           cur = above;
         }
       }
-      rows.push(takeRow());
+      takeRow();
     }
-    allRows.push(rows);
   }
-  return { times: allTimes, ...(derivatives ? { rows: allRows, crossings } : {}) };
+  if (!derivatives) return { times: allTimes };
+  if (workspace !== undefined) {
+    workspace.index = indexBuffer;
+    workspace.value = valueBuffer;
+  }
+  const rows: SparseRow[][] = [];
+  let row = 0;
+  for (const shot of shots) {
+    rows.push(shot.receivers.map(() => {
+      const begin = row === 0 ? 0 : rowEnds[row - 1];
+      const end = rowEnds[row++];
+      return { index: indexBuffer.subarray(begin, end), value: valueBuffer.subarray(begin, end) };
+    }));
+  }
+  return { times: allTimes, rows, crossings };
 }
 
 /** Least times along a refractor (neighbouring-sample times `along`), swept both ways; previous[i] = −1 where the path enters. */

@@ -82,6 +82,14 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
   if (result.forward) {
     out.push(`Forward check: first arrivals computed through the interpreted section match the ${count(result.forward.picks, 'pick')} to ${(result.forward.rms * 1e3).toFixed(2)} ms RMS (worst ${(result.forward.worst.difference * 1e3).toFixed(2)} ms, source ${result.forward.worst.sourceId} at x = ${len(result.forward.worst.receiverX).toFixed(2)} ${unit})`);
   }
+  if (result.inversion) {
+    const inv = result.inversion;
+    if (inv.rmsBefore !== undefined && inv.rmsAfter !== undefined) {
+      out.push(`Layered inversion: over all ${inv.picks} picks (sources off the ends included), the section from the delay-time methods fits to ${(inv.rmsBefore * 1e3).toFixed(2)} ms RMS and the inverted section to ${(inv.rmsAfter * 1e3).toFixed(2)} ms (${inv.iterations} iteration${inv.iterations === 1 ? '' : 's'}${inv.timeShift !== undefined ? `, every pick ${(inv.timeShift * 1e3).toFixed(2)} ± ${((inv.timeShiftSe ?? NaN) * 1e3).toFixed(2)} ms late, as a trigger delay` : ''}); ${inv.kept ? 'kept: the recommended depths and the layer velocities above are the inverted ones' : 'not kept: the improvement is too small, so the depths above are from the delay-time methods'}`);
+    } else {
+      out.push(`Layered inversion: not run (${inv.reason})`);
+    }
+  }
   if (result.reciprocal.length > 0) {
     const bad = result.reciprocal.filter((c) => !c.ok);
     out.push(`Reciprocal times: ${result.reciprocal.length} pair${result.reciprocal.length > 1 ? 's' : ''} checked, ${bad.length} beyond the ${(result.reciprocal[0].tolerance * 1e3).toFixed(2)} ms tolerance${bad.length > 0 ? `: ${bad.map((c) => `${c.sourceA}-${c.sourceB} ${(c.difference * 1e3).toFixed(2)} ms`).join(', ')}` : ''}; largest difference ${(maxOf(result.reciprocal.map((c) => c.difference)) * 1e3).toFixed(2)} ms`);

@@ -46,8 +46,9 @@ describe('hammerline interpret', () => {
     expect(doc.schema).toBe('hammerline/interpretation@1');
     expect(doc.wave).toBe('P');
     expect(doc.layers[0]).toEqual(expect.objectContaining({ index: 1, velocity_mps: expect.any(Number), velocity_se_mps: expect.any(Number) }));
-    expect(doc.refractors[0]).toEqual(expect.objectContaining({ index: 1, method: expect.stringMatching(/GRM|delay-time/) }));
-    expect(Object.keys(doc.refractors[0].by_method).sort()).toEqual(['GRM', 'delay-time', 'intercept-time', 'plus-minus']);
+    expect(doc.refractors[0]).toEqual(expect.objectContaining({ index: 1, method: expect.stringMatching(/inversion|GRM|delay-time/) }));
+    expect(Object.keys(doc.refractors[0].by_method).filter((m) => m !== 'inversion').sort()).toEqual(['GRM', 'delay-time', 'intercept-time', 'plus-minus']);
+    expect(doc.qc.inversion).toEqual(expect.objectContaining({ kept: expect.any(Boolean), rms_before_ms: expect.any(Number), rms_after_ms: expect.any(Number), iterations: expect.any(Number), reason: expect.any(String) }));
     // One point per geophone: the pump-station line has 48 (survey-examples/pump-station/README.md).
     expect(doc.refractors[0].points).toHaveLength(48);
     expect(doc.qc.reciprocal.length).toBeGreaterThan(0);
