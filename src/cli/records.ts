@@ -1,7 +1,7 @@
 import { pushAll } from '../core/extent.js';
 import { InputError } from '../core/errors.js';
 import type { Wave } from '../core/types.js';
-import { apparentVelocityProblem, medianApparentVelocity } from '../io/apparentVelocity.js';
+import { recordVelocityProblem } from '../io/apparentVelocity.js';
 import { toMetres, type LengthUnit } from '../core/units.js';
 import { pickTableCsv, unpickedSummary } from '../io/pickTable.js';
 import { readSeg2 } from '../io/seg2/read.js';
@@ -141,17 +141,7 @@ function pickShearAll(files: string[], values: Record<string, unknown>, options:
  * milliseconds, coordinates in feet), unless --accept-velocities.
  */
 function checkRecordVelocities(record: Seg2Record, picked: PickRow[], wave: Wave | 'any', accept: boolean, io: CliIo): void {
-  const good = picked.filter((r) => r.time !== undefined);
-  const velocity = medianApparentVelocity(good.map((r) => r.receiverX - r.sourceX), good.map((r) => r.time!));
-  if (velocity === undefined) return;
-  const interval = record.traces[0]?.keywords.SAMPLE_INTERVAL ?? '';
-  const problem = apparentVelocityProblem(velocity, wave, [
-    { factor: 1e3, advice: `SAMPLE_INTERVAL ${interval} looks like milliseconds, but SEG-2 gives seconds (ask for the record to be written again, or correct the header)` },
-    { factor: 1e6, advice: `SAMPLE_INTERVAL ${interval} looks like microseconds, but SEG-2 gives seconds` },
-    record.metresPerUnit === 1
-      ? { factor: 0.3048, advice: `the coordinates look like feet while UNITS says ${record.units}` }
-      : { factor: 1 / record.metresPerUnit, advice: `the coordinates look like metres while UNITS says ${record.units}` },
-  ]);
+  const problem = recordVelocityProblem(record, picked, wave);
   if (problem === undefined) return;
   if (accept) io.stderr(`hammerline: ${record.file}: ${problem.replace(/\. If the values are right, give --accept-velocities$/, '')}; accepted as given (--accept-velocities)\n`);
   else throw new InputError({ file: record.file }, problem);

@@ -1,4 +1,5 @@
 import type { Wave } from '../core/types.js';
+import type { Seg2Record } from './seg2/types.js';
 
 /** Lowest and highest apparent velocity, in m/s, that first breaks can show. */
 export interface VelocityBounds {
@@ -58,4 +59,24 @@ export function apparentVelocityProblem(velocity: number, wave: Wave | 'any', su
 
 function formatVelocity(v: number): string {
   return v >= 100 ? String(Math.round(v)) : v >= 1 ? v.toFixed(1) : v.toPrecision(2);
+}
+
+/**
+ * The unit problem of a SEG-2 record judged from its picks, in words, or undefined: a median
+ * apparent velocity no ground has names the likely header fault (SAMPLE_INTERVAL in milliseconds
+ * or microseconds, coordinates in feet or metres against UNITS). Shared by the command line and the
+ * field app.
+ */
+export function recordVelocityProblem(record: Seg2Record, picked: { receiverX: number; sourceX: number; time?: number }[], wave: Wave | 'any'): string | undefined {
+  const good = picked.filter((r) => r.time !== undefined);
+  const velocity = medianApparentVelocity(good.map((r) => r.receiverX - r.sourceX), good.map((r) => r.time!));
+  if (velocity === undefined) return undefined;
+  const interval = record.traces[0]?.keywords.SAMPLE_INTERVAL ?? '';
+  return apparentVelocityProblem(velocity, wave, [
+    { factor: 1e3, advice: `SAMPLE_INTERVAL ${interval} looks like milliseconds, but SEG-2 gives seconds (ask for the record to be written again, or correct the header)` },
+    { factor: 1e6, advice: `SAMPLE_INTERVAL ${interval} looks like microseconds, but SEG-2 gives seconds` },
+    record.metresPerUnit === 1
+      ? { factor: 0.3048, advice: `the coordinates look like feet while UNITS says ${record.units}` }
+      : { factor: 1 / record.metresPerUnit, advice: `the coordinates look like metres while UNITS says ${record.units}` },
+  ]);
 }

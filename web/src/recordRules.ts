@@ -1,6 +1,6 @@
 import { InputError } from '../../src/core/errors.js';
 import type { Wave } from '../../src/core/types.js';
-import { apparentVelocityProblem, medianApparentVelocity } from '../../src/io/apparentVelocity.js';
+import { recordVelocityProblem } from '../../src/io/apparentVelocity.js';
 import type { Seg2Record } from '../../src/io/seg2/types.js';
 import type { PickRow } from '../../src/picking/recordPicks.js';
 
@@ -29,16 +29,6 @@ export function traceLabeller(rows: PickRow[]): (text: string) => string {
  * @throws InputError naming the record and the header value at fault
  */
 export function checkRecordVelocities(record: Seg2Record, picked: PickRow[], wave: Wave | 'any'): void {
-  const good = picked.filter((r) => r.time !== undefined);
-  const velocity = medianApparentVelocity(good.map((r) => r.receiverX - r.sourceX), good.map((r) => r.time!));
-  if (velocity === undefined) return;
-  const interval = record.traces[0]?.keywords.SAMPLE_INTERVAL ?? '';
-  const problem = apparentVelocityProblem(velocity, wave, [
-    { factor: 1e3, advice: `SAMPLE_INTERVAL ${interval} looks like milliseconds, but SEG-2 gives seconds (ask for the record to be written again, or correct the header)` },
-    { factor: 1e6, advice: `SAMPLE_INTERVAL ${interval} looks like microseconds, but SEG-2 gives seconds` },
-    record.metresPerUnit === 1
-      ? { factor: 0.3048, advice: `the coordinates look like feet while UNITS says ${record.units}` }
-      : { factor: 1 / record.metresPerUnit, advice: `the coordinates look like metres while UNITS says ${record.units}` },
-  ]);
+  const problem = recordVelocityProblem(record, picked, wave);
   if (problem !== undefined) throw new InputError({ file: record.file }, problem.replace(/\. If the values are right, give --accept-velocities$/, ''));
 }
