@@ -193,7 +193,7 @@ function pickConfidences(table: FirstBreakTable): number[] {
 }
 
 /** Layers down to the first one not faster than the layer above (no depths below an inversion). */
-function usableLayers(layers: Layer[]): Layer[] {
+export function usableLayers(layers: Layer[]): Layer[] {
   // Without the top layer's velocity no depth can be computed (see the no-direct-wave warning).
   if (layers.length === 0 || layers[0].index !== 1) return [];
   const usable: Layer[] = [];
@@ -212,7 +212,7 @@ export function receiverSpacing(table: FirstBreakTable): number {
 }
 
 /** Residual standard deviation of all line fits together, in seconds: the pick noise. */
-function lineFitRms(fits: BranchFit[]): number {
+export function lineFitRms(fits: BranchFit[]): number {
   let sumSquares = 0;
   let dof = 0;
   for (const f of fits) {
