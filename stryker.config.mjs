@@ -16,12 +16,23 @@ const selected = process.env.MUTATION_MODULE;
 if (selected !== undefined && !(selected in modules)) {
   throw new Error(`MUTATION_MODULE=${selected} is not a module; expected one of ${Object.keys(modules).join(', ')}`);
 }
-const folder = `reports/mutation/${selected ?? 'all'}`;
+// MUTATION_FILES narrows a run to some files of the module (comma-separated globs, Stryker's
+// `file:line-line` ranges allowed), e.g. MUTATION_MODULE=site MUTATION_FILES=src/site/vs30.ts: a
+// slow module can then be measured file by file. Such a run keeps its own report folder (named
+// after the files) so the incremental file of the whole module is not overwritten.
+const files = process.env.MUTATION_FILES?.split(',').map((f) => f.trim()).filter((f) => f !== '');
+if (files !== undefined && files.length > 0 && selected === undefined) {
+  throw new Error('MUTATION_FILES needs MUTATION_MODULE (the module whose tests run against the mutants)');
+}
+const narrowed = files !== undefined && files.length > 0;
+const folder = narrowed
+  ? `reports/mutation/${selected}/${files.join('+').replace(/[^A-Za-z0-9.+-]+/g, '_')}`
+  : `reports/mutation/${selected ?? 'all'}`;
 
 export default {
   testRunner: 'vitest',
   vitest: { configFile: 'vitest.mutation.config.ts' },
-  mutate: selected ? modules[selected] : Object.values(modules).flat(),
+  mutate: narrowed ? files : selected ? modules[selected] : Object.values(modules).flat(),
   // Only the tests that cover a mutant run against it.
   coverageAnalysis: 'perTest',
   // Static mutants (module-level constants) would need the whole suite per mutant; they are left

@@ -6,7 +6,7 @@ import { defineConfig } from 'vitest/config';
 // a lower bound of what the whole suite (npm test) kills.
 const tests: Record<string, string[]> = {
   units: ['test/core/units.test.ts', 'test/io/depthsCsv.test.ts'],
-  layers: ['test/fit/dippingLayers.test.ts', 'test/fit/layers.test.ts', 'test/depth/interceptTime.test.ts', 'test/interpret.forward.test.ts'],
+  layers: ['test/fit/layerVelocities.test.ts', 'test/fit/dippingLayers.test.ts', 'test/fit/layers.test.ts', 'test/depth/interceptTime.test.ts', 'test/interpret.forward.test.ts'],
   site: ['test/site/**/*.test.ts'],
   depth: ['test/depth/**/*.test.ts', 'test/fit/dippingLayers.test.ts', 'test/interpret.forward.test.ts'],
   forward: ['test/forward/**/*.test.ts'],

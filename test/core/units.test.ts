@@ -37,6 +37,8 @@ describe('units', () => {
     expect(formatVelocity(304.8, 'ft')).toBe('1000 ft/s [305 m/s]');
     expect(formatVelocity([1450, 1650], 'm', 0, '-')).toBe('1450-1650 m/s');
     expect(formatVelocity(1500, 'm')).toBe('1500 m/s');
+    // A list joined by ", " unless told otherwise, as formatLength.
+    expect(formatVelocity([1450, 1650], 'm')).toBe('1450, 1650 m/s');
   });
 
   it('formatLength never prints a negative zero, and keeps the sign of a negative value', () => {
