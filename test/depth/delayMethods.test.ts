@@ -1,0 +1,116 @@
+import { describe, expect, it } from 'vitest';
+import { depthFromDelay, velocitiesFor } from '../../src/depth/convert.js';
+import { layerThickness } from '../../src/depth/interceptTime.js';
+import { plusMinus } from '../../src/depth/plusMinus.js';
+import type { ReversedPair } from '../../src/depth/reversedPair.js';
+
+// Delay-time conversions and the plus-minus method on times written out by hand from the
+// delay-time model of a refractor (Hagedoorn 1959; Telford, Geldart & Sheriff 1990, §4.3):
+// t_AG = a_A + b_G + |x_G − x_A| / V, with a_A and b_G the delays at the source and at the
+// receiver. The flat-layer delay of a layer h thick over refractor velocity V is h cos θ / V1,
+// sin θ = V1 / V (Telford et al. 1990, eq. 4.27: the intercept time is twice it).
+
+const cosOf = (v1: number, v2: number) => Math.sqrt(1 - (v1 / v2) ** 2);
+
+describe('depthFromDelay', () => {
+  it('depthFromDelay(5 cos θ / 500 s, 500 over 2000 m/s) is 5 m, with SE V1 σ / cos θ (delta method)', () => {
+    const delay = (5 * cosOf(500, 2000)) / 500; // 9.682 ms, by hand
+    const result = depthFromDelay(delay, 1e-4, [], [], [500, 2000], [0, 0])!;
+    expect(result.depth).toBeCloseTo(5, 9);
+    // ∂z/∂delay = V1 / cos θ = 500 / 0.96825 = 516.4 m/s: 0.1 ms gives 5.164 cm.
+    expect(result.se).toBeCloseTo((500 * 1e-4) / cosOf(500, 2000), 6);
+  });
+
+  it('depthFromDelay of the second refractor adds its thickness to the depth above: 3 m at 400, then 6 m at 900 over 1800 m/s', () => {
+    // One-way delay to refractor 2: 3 cos θ₁₃ / 400 + 6 cos θ₂₃ / 900 (Telford et al. 1990, eq. 4.28, halved).
+    const delay = (3 * cosOf(400, 1800)) / 400 + (6 * cosOf(900, 1800)) / 900;
+    const result = depthFromDelay(delay, 0, [3], [0], [400, 900, 1800], [0, 0, 0])!;
+    expect(result.depth).toBeCloseTo(9, 9);
+    // The SE of the depth above passes with ∂z/∂z₁ = 1 − (cos θ₁₃ / 400)·(900 / cos θ₂₃), by hand.
+    const withUpper = depthFromDelay(delay, 0, [3], [0.1], [400, 900, 1800], [0, 0, 0])!;
+    const dz = 1 - (cosOf(400, 1800) / 400) * (900 / cosOf(900, 1800));
+    expect(withUpper.se).toBeCloseTo(Math.abs(dz) * 0.1, 6);
+  });
+
+  it('depthFromDelay returns undefined for a refractor no faster than the layer above', () => {
+    expect(depthFromDelay(0.01, 0, [], [], [800, 700], [0, 0])).toBeUndefined();
+  });
+
+  it('velocitiesFor replaces only the refractor\'s velocity and its SE with the method\'s own estimate', () => {
+    const layers = [{ index: 1, velocity: 500, velocitySe: 5, segmentCount: 2, reversed: true }, { index: 2, velocity: 2000, velocitySe: 20, segmentCount: 2, reversed: true }];
+    expect(velocitiesFor(layers, 1, { velocity: 2100, se: 30 })).toEqual({ velocities: [500, 2100], ses: [5, 30] });
+    expect(velocitiesFor(layers, 1)).toEqual({ velocities: [500, 2000], ses: [5, 20] });
+  });
+
+  it('layerThickness returns undefined when the intercept is too small for the layers above (a negative thickness)', () => {
+    // 3 m at 400 over 900 m/s alone give 2·3·cos θ₁₃/400 = 14.56 ms at V3 = 1800 m/s (eq. 4.28): 10 ms is too little.
+    expect(layerThickness(0.01, [3], [400, 900, 1800])).toBeUndefined();
+    expect(layerThickness(0.02, [3], [400, 900, 1800])).toBeCloseTo(((0.02 - (6 * cosOf(400, 1800)) / 400) * 900) / (2 * cosOf(900, 1800)), 9);
+    // A refractor (1800 m/s) slower than a layer above it (1900 m/s): no head wave.
+    expect(layerThickness(0.02, [3], [400, 1900, 1800])).toBeUndefined();
+  });
+});
+
+describe('plusMinus (Hagedoorn 1959) on delay-time-model times', () => {
+  // Sources A at 0 and B at 48 m, receivers every 2 m, refractor at 2000 m/s with delays
+  // b(x) = 4 ms + 2 ms · sin(x / 10) under the receivers and 5 ms, 6 ms under A and B.
+  const V = 2000;
+  const xs = Array.from({ length: 23 }, (_, i) => 2 + 2 * i);
+  const b = (x: number) => 4e-3 + 2e-3 * Math.sin(x / 10);
+  const aA = 5e-3;
+  const aB = 6e-3;
+  const curve = (sourceId: string, sourceX: number, a: number, phantomXs: number[] = []) => ({
+    sourceId, sourceX, xs: [...xs], times: xs.map((x) => a + b(x) + Math.abs(x - sourceX) / V), phantomXs, shiftOverlaps: [],
+  });
+  const pairOf = (phantomXs: number[] = [], noise = 0): ReversedPair => {
+    const forward = curve('A', 0, aA, phantomXs);
+    // Pick noise on the forward curve only: ±noise alternately.
+    forward.times = forward.times.map((t, i) => t + (i % 2 === 0 ? noise : -noise));
+    return { forward, reverse: curve('B', 48, aB), reciprocal: aA + aB + 48 / V, reciprocalReadings: 2 };
+  };
+
+  it('plusMinus gives the delay b(x) at every receiver between the sources (T⁺ / 2) and V from the minus times (slope 2/V)', () => {
+    const profile = plusMinus(pairOf(), 2)!;
+    expect(profile.method).toBe('plus-minus');
+    expect(profile.refractor).toBe(2);
+    expect(profile.stations.map((s) => s.x)).toEqual(xs);
+    for (const s of profile.stations) expect(s.delay).toBeCloseTo(b(s.x), 12);
+    expect(profile.velocity!.velocity).toBeCloseTo(V, 6);
+    expect(profile.velocity!.se).toBeCloseTo(0, 9);
+    expect(profile.info.reciprocal_time_ms).toBeCloseTo((aA + aB + 48 / V) * 1e3, 3);
+  });
+
+  it('plusMinus measures the pick noise from the scatter of the minus times and propagates it to the delays and the velocity', () => {
+    // ±0.2 ms on one curve: the minus times scatter about their line; σ_pick = SD(T⁻ residuals)/√2,
+    // SE(delay) = √(2σ² + σ²/2) / 2 with two reciprocal readings, SE(V) = 2 SE(slope) / slope²
+    // with SE(slope) = SD / √Σ(x − x̄)² (least squares, common practice), all worked below.
+    const profile = plusMinus(pairOf([], 2e-4), 1)!;
+    const minus = xs.map((x, i) => (i % 2 === 0 ? 2e-4 : -2e-4) + aA - aB + (2 * x - 48) / V);
+    const n = xs.length;
+    const mx = xs.reduce((a, v) => a + v, 0) / n;
+    const mm = minus.reduce((a, v) => a + v, 0) / n;
+    const sxx = xs.reduce((a, v) => a + (v - mx) ** 2, 0);
+    const slope = xs.reduce((a, v, i) => a + (v - mx) * (minus[i] - mm), 0) / sxx;
+    const sd = Math.sqrt(xs.reduce((a, v, i) => a + (minus[i] - (mm + slope * (v - mx))) ** 2, 0) / (n - 2));
+    const pick = sd / Math.SQRT2;
+    expect(Number(profile.info.pick_noise_ms)).toBeCloseTo(pick * 1e3, 3);
+    expect(profile.velocity!.velocity).toBeCloseTo(2 / slope, 6);
+    expect(profile.velocity!.se).toBeCloseTo((2 * sd) / Math.sqrt(sxx) / slope ** 2, 6);
+    for (const s of profile.stations) expect(s.delaySe).toBeCloseTo(Math.sqrt(2 * pick ** 2 + pick ** 2 / 2) / 2, 9);
+    // A phantomed station adds 2σ²/3 to the variance of its plus time.
+    const phantomed = plusMinus(pairOf([10], 2e-4), 1)!;
+    expect(phantomed.stations.find((s) => s.x === 10)!.delaySe).toBeCloseTo(Math.sqrt(2 * pick ** 2 + pick ** 2 / 2 + (2 * pick ** 2) / 3) / 2, 9);
+    expect(phantomed.info.phantomed_stations).toBe(1);
+  });
+
+  it('plusMinus uses only receivers strictly between the sources and recorded by both, and needs three of them', () => {
+    const pair = pairOf();
+    pair.reverse.xs = pair.reverse.xs.slice(0, 20); // the reverse curve stops at x = 40 m
+    pair.reverse.times = pair.reverse.times.slice(0, 20);
+    expect(plusMinus(pair, 1)!.stations.map((s) => s.x)).toEqual(xs.slice(0, 20));
+    const short = pairOf();
+    short.reverse.xs = [2, 4];
+    short.reverse.times = short.reverse.times.slice(0, 2);
+    expect(plusMinus(short, 1)).toBeUndefined();
+  });
+});
