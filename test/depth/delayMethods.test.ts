@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { depthFromDelay, velocitiesFor } from '../../src/depth/convert.js';
+import { depthAt, pointsFromDelays } from '../../src/depth/delayProfile.js';
 import { layerThickness } from '../../src/depth/interceptTime.js';
 import { plusMinus } from '../../src/depth/plusMinus.js';
 import type { ReversedPair } from '../../src/depth/reversedPair.js';
@@ -48,6 +49,38 @@ describe('depthFromDelay', () => {
     expect(layerThickness(0.02, [3], [400, 900, 1800])).toBeCloseTo(((0.02 - (6 * cosOf(400, 1800)) / 400) * 900) / (2 * cosOf(900, 1800)), 9);
     // A refractor (1800 m/s) slower than a layer above it (1900 m/s): no head wave.
     expect(layerThickness(0.02, [3], [400, 1900, 1800])).toBeUndefined();
+  });
+});
+
+describe('pointsFromDelays and depthAt', () => {
+  const layers = [400, 900, 1800].map((velocity, i) => ({ index: i + 1, velocity, velocitySe: 0, segmentCount: 2, reversed: true }));
+
+  it('pointsFromDelays puts each point at the ground elevation minus its depth, and refractor 2 under the depths above', () => {
+    // Refractor 1 at 3 m: delay 3 cos θ₁₂ / 400 with θ₁₂ = asin(400/900); the method's own V (900) is used.
+    const first = pointsFromDelays({ method: 'm', refractor: 1, stations: [{ x: 10, delay: (3 * cosOf(400, 900)) / 400, delaySe: 0 }], velocity: { velocity: 900, se: 0 }, info: {} },
+      layers, () => undefined, (x) => 100 - 0.1 * x);
+    expect(first).toHaveLength(1);
+    expect(first[0].depth).toBeCloseTo(3, 9);
+    expect(first[0].elev).toBeCloseTo(99 - 3, 9);
+    // Refractor 2 at 9 m under 3 m; a station without depths above (x = 20) is left out.
+    const delay = (3 * cosOf(400, 1800)) / 400 + (6 * cosOf(900, 1800)) / 900;
+    const second = pointsFromDelays({ method: 'm', refractor: 2, stations: [{ x: 10, delay, delaySe: 0 }, { x: 20, delay, delaySe: 0 }], info: {} },
+      layers, (x) => (x === 10 ? { depths: [3], ses: [0] } : undefined), () => 50);
+    expect(second.map((p) => p.x)).toEqual([10]);
+    expect(second[0].depth).toBeCloseTo(9, 9);
+    expect(second[0].elev).toBeCloseTo(41, 9);
+  });
+
+  it('depthAt interpolates depth and SE linearly between points and is undefined outside them', () => {
+    const points = [{ x: 0, depth: 2, elev: 0, depthSe: 0.1 }, { x: 10, depth: 4, elev: 0, depthSe: 0.3 }, { x: 20, depth: 3, elev: 0, depthSe: 0.2 }];
+    expect(depthAt(points, 2.5)!.depth).toBeCloseTo(2.5, 12);
+    expect(depthAt(points, 2.5)!.se).toBeCloseTo(0.15, 12);
+    expect(depthAt(points, 15)!.depth).toBeCloseTo(3.5, 12);
+    expect(depthAt(points, 10)).toEqual({ depth: 4, se: 0.3 });
+    expect(depthAt(points, 20)).toEqual({ depth: 3, se: 0.2 });
+    expect(depthAt(points, -0.1)).toBeUndefined();
+    expect(depthAt(points, 20.1)).toBeUndefined();
+    expect(depthAt([], 0)).toBeUndefined();
   });
 });
 
