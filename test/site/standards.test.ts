@@ -48,6 +48,22 @@ describe('site-class check values of SITE-CLASSES.md', () => {
     expect(groundTypeE([{ thickness: 10, velocity: 200 }, { thickness: Infinity, velocity: 1000 }])).toEqual({ soilThickness: 10, soilVelocity: 200, baseVelocity: 1000 });
   });
 
+  it('groundTypeE takes the ends of its ranges as type E: 5 m and 20 m of soil (Table 3.1: "between about 5 m and 20 m"), soil at 360 m/s (type C, the softer side of the bound)', () => {
+    // Table 3.1 ground type E: alluvium with vs of type C or D, 5 to 20 m thick, over vs > 800 m/s.
+    expect(groundTypeE([{ thickness: 5, velocity: 200 }, { thickness: Infinity, velocity: 1000 }])?.soilThickness).toBe(5);
+    expect(groundTypeE([{ thickness: 20, velocity: 200 }, { thickness: Infinity, velocity: 1000 }])?.soilThickness).toBe(20);
+    expect(groundTypeE([{ thickness: 10, velocity: 360 }, { thickness: Infinity, velocity: 1000 }])?.soilVelocity).toBe(360);
+    // Two soil layers average by travel time: 12 / (4/150 + 8/300) = 225 m/s, by hand; the base is the first layer above 800 m/s.
+    const two = groundTypeE([{ thickness: 4, velocity: 150 }, { thickness: 8, velocity: 300 }, { thickness: 10, velocity: 900 }, { thickness: Infinity, velocity: 2000 }])!;
+    expect(two.soilThickness).toBe(12);
+    expect(two.soilVelocity).toBeCloseTo(225, 9);
+    expect(two.baseVelocity).toBe(900);
+    // Rock at the surface (no soil above the first layer faster than 800 m/s) is not type E.
+    expect(groundTypeE([{ thickness: 10, velocity: 900 }, { thickness: Infinity, velocity: 2000 }])).toBeUndefined();
+    // No layer faster than 800 m/s: not type E.
+    expect(groundTypeE([{ thickness: 10, velocity: 200 }, { thickness: Infinity, velocity: 700 }])).toBeUndefined();
+  });
+
   it('groundTypeE rejects soil thinner than 5 m, thicker than 20 m, faster than 360 m/s, or a base not above 800 m/s', () => {
     expect(groundTypeE([{ thickness: 4, velocity: 200 }, { thickness: Infinity, velocity: 1000 }])).toBeUndefined();
     expect(groundTypeE([{ thickness: 21, velocity: 200 }, { thickness: Infinity, velocity: 1000 }])).toBeUndefined();

@@ -35,4 +35,19 @@ describe('vs30', () => {
   it('vs30 rejects a zero velocity', () => {
     expect(() => vs30({ layers: [{ thickness: 5, velocity: 0 }] })).toThrow(RangeError);
   });
+
+  it('vs30 rejects a zero velocity or a negative thickness in any layer, naming the values, and a profile with nothing to extend', () => {
+    // Eq. 3.1 / Eq. 20.4-1 divide each thickness by its velocity: a zero velocity or a negative
+    // thickness has no meaning, wherever it is in the profile.
+    expect(() => vs30({ layers: [{ thickness: 5, velocity: 0 }, { thickness: 10, velocity: 300 }], halfspace: 600 })).toThrow(/velocity above 0 m\/s; got 5 m at 0 m\/s/);
+    expect(() => vs30({ layers: [{ thickness: -1, velocity: 200 }, { thickness: 10, velocity: 300 }] })).toThrow(/thickness of 0 m or more.*got -1 m at 200 m\/s/);
+    expect(() => vs30({ layers: [{ thickness: Number.NaN, velocity: 200 }] })).toThrow(RangeError);
+    // No layer and no half-space, or a half-space of 0 m/s: nothing to extend to 30 m.
+    expect(() => vs30({ layers: [] })).toThrow(/needs at least one layer or a half-space velocity above 0 m\/s/);
+    expect(() => vs30({ layers: [{ thickness: 10, velocity: 200 }], halfspace: 0 })).toThrow(/half-space velocity above 0/);
+    // A half-space alone is a uniform ground: v̄s is its velocity, all 30 m extrapolated.
+    expect(vs30({ layers: [], halfspace: 450 })).toEqual({ vs30: 450, extrapolated: 30 });
+    // A layer of zero thickness is allowed and changes nothing: 30 / (10/200 + 20/400) = 300 m/s.
+    expect(vs30({ layers: [{ thickness: 10, velocity: 200 }, { thickness: 0, velocity: 50 }, { thickness: 40, velocity: 400 }] }).vs30).toBeCloseTo(300, 9);
+  });
 });
