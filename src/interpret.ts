@@ -1,6 +1,7 @@
 import { checkHiddenLayers, checkLayerCautions, checkShearTopLayer, depthCautions, type Caution } from './core/cautions.js';
 import { len, si, vel, type SiText } from './core/siText.js';
 import { median } from './core/stats.js';
+import { seDecimals } from './core/units.js';
 import type { BranchFit, FirstBreakTable, Interpretation, Layer, Wave } from './core/types.js';
 import { WarningLog } from './core/warnings.js';
 import { interceptTimeDepths } from './depth/interceptTime.js';
@@ -105,7 +106,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     layers = layerVelocities(fits, joint.refractors + 1, log);
     for (const p of joint.possible) {
       log.add('possible-refractor',
-        si`a refractor of about ${vel(p.velocity)} ± ${vel(p.velocitySe)} below layer ${p.index} is suggested by ${p.picks} picks of source${p.sources.length > 1 ? 's' : ''} ${p.sources.join(', ')}, but the evidence is too thin for depths (${p.failed.join('; ')}): it is reported as possible, without depths, and its picks are left out of the layers above. Shoot farther off both ends, or lengthen the spread, to confirm it`,
+        si`a refractor of about ${vel(p.velocity)} ± ${vel(p.velocitySe, seDecimals(p.velocitySe, 0))} below layer ${p.index} is suggested by ${p.picks} picks of source${p.sources.length > 1 ? 's' : ''} ${p.sources.join(', ')}, but the evidence is too thin for depths (${p.failed.join('; ')}): it is reported as possible, without depths, and its picks are left out of the layers above. Shoot farther off both ends, or lengthen the spread, to confirm it`,
         { layer: p.index + 1 });
     }
     history.push({

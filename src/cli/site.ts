@@ -1,5 +1,5 @@
 import { InputError } from '../core/errors.js';
-import { fromMetres, toMetres } from '../core/units.js';
+import { formatSe, fromMetres, toMetres } from '../core/units.js';
 import { siteJson } from '../io/siteJson.js';
 import { VERSION } from '../interpret.js';
 import { siteSummary } from '../report/siteSummary.js';
@@ -60,7 +60,7 @@ export function siteCommand(args: string[], io: CliIo): number {
     ? JSON.stringify({ schema: 'hammerline/site@1', program: { name: 'hammerline', version: VERSION }, units: { length: 'm', velocity: 'm/s' },
       profile: all.map((l, i) => ({ layer: i + 1, thickness_m: i < layers.length ? Number(l.thickness.toFixed(3)) : null, velocity_mps: Number(l.velocity.toFixed(1)), velocity_se_mps: Number(l.se.toFixed(1)) })),
       site: siteJson(site) }, null, 2) + '\n'
-    : [`hammerline ${VERSION}: hand-entered shear-wave profile`, ...all.map((l, i) => `  layer ${i + 1}: ${i < layers.length ? `${fromMetres(l.thickness, unit).toFixed(2)} ${unit}` : 'half-space'} at ${Math.round(fromMetres(l.velocity, unit))} ${unit === 'ft' ? 'ft/s' : 'm/s'}${l.se > 0 ? ` ± ${Math.round(fromMetres(l.se, unit))}` : ''}`), '', ...siteSummary(site, unit)].join('\n') + '\n';
+    : [`hammerline ${VERSION}: hand-entered shear-wave profile`, ...all.map((l, i) => `  layer ${i + 1}: ${i < layers.length ? `${fromMetres(l.thickness, unit).toFixed(2)} ${unit}` : 'half-space'} at ${Math.round(fromMetres(l.velocity, unit))} ${unit === 'ft' ? 'ft/s' : 'm/s'}${l.se > 0 ? ` ± ${formatSe(fromMetres(l.se, unit), 0)}` : ''}`), '', ...siteSummary(site, unit)].join('\n') + '\n';
   if (values.output) io.writeText(values.output as string, output);
   else io.stdout(output);
   return 0;

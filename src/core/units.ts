@@ -49,3 +49,21 @@ function fixed(value: number, digits: number): string {
   const text = value.toFixed(digits);
   return /^-0(\.0*)?$/.test(text) ? text.slice(1) : text;
 }
+
+/**
+ * A standard error printed with `digits` decimals, or with up to two more when it would otherwise
+ * read as zero ("± 0" says exact, which a rounded 0.3 m/s is not): 0.3 at whole units prints
+ * "0.3"; one too small even then prints "< 0.01" (at whole units). A standard error of exactly
+ * zero (none given) prints as zero.
+ */
+export function formatSe(se: number, digits: number): string {
+  if (!(se > 0)) return se.toFixed(digits);
+  const d = seDecimals(se, digits);
+  return Number(se.toFixed(d)) > 0 ? se.toFixed(d) : `< ${(10 ** -d).toFixed(d)}`;
+}
+
+/** Decimals a positive standard error needs not to print as zero: `digits`, or up to two more. */
+export function seDecimals(se: number, digits: number): number {
+  for (let d = digits; d < digits + 2; d++) if (Number(se.toFixed(d)) > 0) return d;
+  return digits + 2;
+}

@@ -67,7 +67,7 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
     }
     const grmInfo = r.methodInfo['GRM'];
     if (grmInfo) out.push(`  GRM optimum XY ${fromMetres(Number(grmInfo.optimum_xy_m), unit).toFixed(2)} ${unit} (from the ${String(grmInfo.optimum_xy_basis)}), sources ${String(grmInfo.source_forward)} and ${String(grmInfo.source_reverse)}`);
-    const velocities = Object.entries(r.methodInfo).filter(([, info]) => info.velocity_mps !== undefined).map(([m, info]) => `${m} ${Math.round(vel(Number(info.velocity_mps)))} ± ${Math.round(vel(Number(info.velocity_se_mps)))}`);
+    const velocities = Object.entries(r.methodInfo).filter(([, info]) => info.velocity_mps !== undefined).map(([m, info]) => `${m} ${plusMinus(vel(Number(info.velocity_mps)), vel(Number(info.velocity_se_mps)), 0)}`);
     if (velocities.length > 0) out.push(`  Refractor velocity by method (${vLabel}): ${velocities.join('; ')}`);
     if (r.hiddenLayer) out.push(`  Hidden-layer limit: ${displayText(hiddenLayerText(r), unit)}`);
     const qualifying = result.warnings.filter((w) => w.layer === r.index + 1);
@@ -75,7 +75,7 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
     out.push('');
   }
   for (const p of result.joint?.possible ?? []) {
-    out.push(`Possible refractor below layer ${p.index}: about ${Math.round(vel(p.velocity))} ± ${Math.round(vel(p.velocitySe))} ${vLabel}, from ${p.picks} picks of ${p.sources.join(', ')}; no depths (${p.failed.join('; ')})`, '');
+    out.push(`Possible refractor below layer ${p.index}: about ${plusMinus(vel(p.velocity), vel(p.velocitySe), 0)} ${vLabel}, from ${p.picks} picks of ${p.sources.join(', ')}; no depths (${p.failed.join('; ')})`, '');
   }
   const noise = result.pickNoise;
   out.push(`Pick noise: ${(noise.sigma * 1e3).toFixed(2)} ms, from the ${noise.source} of the picks${noise.reciprocal && noise.source !== 'reciprocal times' ? `; reciprocal times give ${(noise.reciprocal.sigma * 1e3).toFixed(2)} ms over ${noise.reciprocal.count} pair${noise.reciprocal.count === 1 ? '' : 's'}` : ''}`);

@@ -2,8 +2,10 @@ import { WATER_TABLE_VP_MIN } from '../core/cautions.js';
 import { InputError } from '../core/errors.js';
 import { si, vel, type SiText } from '../core/siText.js';
 import { depthAt } from '../depth/delayProfile.js';
+import { hiddenLayerLimit } from '../depth/hiddenLayer.js';
+import { median } from '../core/stats.js';
 import type { Interpretation, Layer, Refractor } from '../core/types.js';
-import type { SiteInput, SiteStation, VsLayer } from './siteAssessment.js';
+import type { HiddenSaturatedLayer, SiteInput, SiteStation, VsLayer } from './siteAssessment.js';
 import { poissonFromRatio, vpVsRatio } from './vsFromVp.js';
 import { minOf, maxOf } from '../core/extent.js';
 
@@ -90,6 +92,7 @@ export function planSite(
   const missing = vsLayers.filter((l) => l.basis === 'not-estimated');
   if (missing.length > 0) return { vsLayers, refused: refusal(missing) };
   const poisson = vsLayers.map((l) => l.poisson ?? poissonFromRatio(l.vp! / l.vs!));
+  const hidden = hiddenSaturatedLayer(layers, result.refractors);
   return {
     vsLayers,
     input: {
@@ -99,8 +102,42 @@ export function planSite(
       estimatedFromVp: true,
       poisson,
       vsLayers,
+      ...(hidden ? { hiddenSaturated: hidden } : {}),
     },
   };
+}
+
+/** Vp assumed for a saturated layer the line may hide: the speed of sound in water, about 1480-1500 m/s (common practice). */
+export const HIDDEN_SATURATED_VP = 1500;
+
+/**
+ * A water table the fit may have lost: on a P line with no layer in the band of saturated soil,
+ * the shallowest refractor that jumps across that band (the layer above slower than 1450 m/s,
+ * the refractor faster than SATURATED_VP_MAX) could hide a saturated layer of Vp about
+ * HIDDEN_SATURATED_VP above it. Its largest thickness and the depth error it would cause are
+ * Soske's hidden-layer limit (depth/hiddenLayer.ts), with the intercept times worked back from
+ * the median refractor depths (t_k = Σ 2 h_i cos θ_ik / v_i, the flat-layer relation of
+ * depth/interceptTime.ts, Telford, Geldart & Sheriff 1990 §4.3): exact for
+ * the top refractor, the layers above lumped for deeper ones. Undefined when there is no such refractor.
+ */
+export function hiddenSaturatedLayer(layers: Layer[], refractors: Refractor[]): HiddenSaturatedLayer | undefined {
+  if (layers.some((l) => maybeSaturated(l.velocity))) return undefined;
+  const v = layers.map((l) => l.velocity);
+  const depths = refractors.map((r) => median(r.points.map((p) => p.depth)));
+  if (depths.some((d) => d === undefined)) return undefined;
+  const z = depths as number[];
+  const intercept = (m: number) => {
+    let t = 0;
+    for (let i = 0; i < m; i++) t += (2 * (z[i] - (i === 0 ? 0 : z[i - 1])) * Math.sqrt(Math.max(0, 1 - (v[i] / v[m]) ** 2))) / v[i];
+    return t;
+  };
+  for (let k = 1; k < v.length && k <= z.length; k++) {
+    if (!(v[k - 1] < WATER_TABLE_VP_MIN && v[k] > SATURATED_VP_MAX)) continue;
+    const limit = hiddenLayerLimit(k, v[k - 1], v[k], intercept(k - 1), intercept(k), HIDDEN_SATURATED_VP);
+    if (limit === undefined || !(limit.depthUnderestimate > 0)) return undefined;
+    return { refractor: k, vp: HIDDEN_SATURATED_VP, maxThickness: limit.maxThickness, depthUnderestimate: limit.depthUnderestimate };
+  }
+  return undefined;
 }
 
 function refusal(missing: VsLayer[]): SiText {

@@ -50,6 +50,21 @@ export interface VsLayer {
   saturated?: 'water-band' | 'below-water-table';
 }
 
+/**
+ * A saturated layer a P line may hide above one refractor (no layer in the saturated band was
+ * found, but the refractor jumps across it): Soske's largest such layer and the depth error.
+ */
+export interface HiddenSaturatedLayer {
+  /** The refractor it would lie above (1 = top of layer 2). */
+  refractor: number;
+  /** Its assumed Vp, in m/s. */
+  vp: number;
+  /** Largest thickness that would never arrive first, in metres. */
+  maxThickness: number;
+  /** How much deeper the refractor (and every one below) would then be, in metres. */
+  depthUnderestimate: number;
+}
+
 /** What the site assessment needs: shear-wave velocities per layer and the stations. */
 export interface SiteInput {
   /** Shear-wave velocity of each layer, top down (the last is below the deepest refractor), m/s. */
@@ -71,6 +86,8 @@ export interface SiteInput {
   vsLayers?: VsLayer[];
   /** Where the profile comes from: a refraction line (default) or entered by hand (downhole, crosshole, ...). */
   source?: 'refraction' | 'hand-entered';
+  /** Vs from Vp on a line that may hide a saturated layer: what the classes would be with it. */
+  hiddenSaturated?: HiddenSaturatedLayer;
 }
 
 export interface SiteOptions {
@@ -178,8 +195,8 @@ function hasUncertainty(input: SiteInput): boolean {
  * comes from Vp (uniform over its stated range), the velocity extended below the deepest boundary
  * (its standard error widened by EXTRAPOLATION_SPREAD_PER_M per metre) and the along-line
  * variation (a station drawn at random for each draw). A class whose probability is under 90 %
- * is borderline, with its most likely neighbour named. Estimated velocities never give a class the
- * standard reserves for measured ones (ASCE 7 classes A and B): the standard's label instead.
+ * is borderline, with its most likely neighbour named. Estimated velocities never give a rock class
+ * (ASCE 7 classes A and B, EN 1998-1 ground type A): the standard's label ("B or stiffer") instead.
  * Without any uncertainty in the input no Monte Carlo runs and no probability is given.
  *
  * @throws RangeError for fewer than 2000 draws or an input with no station
@@ -229,6 +246,15 @@ export function assessSite(input: SiteInput, options: SiteOptions = {}): SiteAss
   }
   samples.sort((a, b) => a - b);
 
+  // A saturated layer the line may hide: the central profile with that refractor (and those below)
+  // deeper by Soske's limit, the Vs of the soil above continued through it (below the water table
+  // Vs follows the soil skeleton, not the pore water: common practice).
+  const hidden = input.hiddenSaturated;
+  const hiddenProfile = hidden === undefined ? undefined
+    : profileAt(input.velocities, central.depths.map((d, k) => (k >= hidden.refractor - 1 ? d + hidden.depthUnderestimate : d)), undefined, base);
+  const hiddenClasses = hiddenProfile === undefined ? undefined
+    : STANDARDS.map((standard) => { const c = classOf(standard, hiddenProfile); return { vs: c.vs, cls: reported(standard, c.cls, estimated) }; });
+
   const classes: StandardClass[] = STANDARDS.map((standard, i) => {
     const { vs, cls: rawClass, velocityClass, byShape } = classOf(standard, centralProfile);
     const cls = reported(standard, rawClass, estimated);
@@ -252,16 +278,18 @@ export function assessSite(input: SiteInput, options: SiteOptions = {}): SiteAss
       noteTexts,
     };
     if (cls !== rawClass) {
+      const reserved = standard.measuredOnly!;
       entry.classByEstimate = rawClass;
-      entry.measuredOnlyClause = standard.measuredOnly!.clause;
-      noteTexts.push(si`the estimated v̄s, ${vel(vs)}, lies in the range of class ${standard.measuredOnly!.classes.join(' or ')}, which ${standard.measuredOnly!.clause} reserve for shear-wave velocities measured on site: reported as "${cls}", needs measured Vs (an S-wave line, a downhole or crosshole test) before class ${standard.measuredOnly!.classes.join(' or ')} can be assigned; confirm the requirement in the adopted edition.`);
+      entry.measuredOnlyClause = reserved.clause;
+      noteTexts.push(reserved.note?.(vs, cls) ?? si`the estimated v̄s, ${vel(vs)}, lies in the range of class ${reserved.classes.join(' or ')}, which ${reserved.clause} reserve for shear-wave velocities measured on site: reported as "${cls}", needs measured Vs (an S-wave line, a downhole or crosshole test) before class ${reserved.classes.join(' or ')} can be assigned; confirm the requirement in the adopted edition.`);
     }
     if (byShape) {
-      entry.velocityClass = velocityClass;
+      // The class by velocity alone, as reported: an estimate never shows a reserved class here either.
+      entry.velocityClass = reported(standard, velocityClass, estimated);
       const soil = centralProfile.layers.filter((l) => l.velocity <= 800);
       const thickness = soil.reduce((a, l) => a + l.thickness, 0);
       const average = thickness / soil.reduce((a, l) => a + l.thickness / l.velocity, 0);
-      noteTexts.push(si`ground type E by profile shape (Table 3.1): ${len(thickness)} of soil at ${vel(average)} over material faster than ${vel(800)}; vs,30 alone gives type ${velocityClass}. Whether the surface layer is alluvium is for the geologist to judge.`);
+      noteTexts.push(si`ground type E by profile shape (Table 3.1): ${len(thickness)} of soil at ${vel(average)} over material faster than ${vel(800)}; vs,30 alone gives type ${entry.velocityClass}. Whether the surface layer is alluvium is for the geologist to judge.`);
     }
     if (estimated && standard.estimatedFactor !== undefined) {
       const f = standard.estimatedFactor;
@@ -269,6 +297,10 @@ export function assessSite(input: SiteInput, options: SiteOptions = {}): SiteAss
       entry.estimatedRange = { factor: f, low: { velocity: vs / f, class: at(vs / f) }, central: { velocity: vs, class: at(vs) }, high: { velocity: vs * f, class: at(vs * f) } };
       // Section 20.3 with the factor 1.3: SITE-CLASSES.md [memory], very likely, not confirmed.
       noteTexts.push(si`where shear-wave velocities are estimated rather than measured (Section 20.3), the design uses the most critical of the classes from v̄s / ${f}, v̄s and ${f} v̄s: ${entry.estimatedRange.low.class}, ${entry.estimatedRange.central.class}, ${entry.estimatedRange.high.class}. Which is most critical depends on the design spectra, which this report does not judge; confirm the rule and its factor in the adopted edition.`);
+    }
+    const withHidden = hiddenClasses?.[i];
+    if (hidden !== undefined && withHidden !== undefined && withHidden.cls !== cls) {
+      noteTexts.push(si`with a saturated layer hidden above refractor ${hidden.refractor} (see the cautions on the site class), v̄s would be ${vel(withHidden.vs)} and the class ${withHidden.cls}: confirm the depth to water and to rock before relying on class ${cls}.`);
     }
     entry.notes = noteTexts.map((t) => t.text);
     return entry;
@@ -292,7 +324,10 @@ export function assessSite(input: SiteInput, options: SiteOptions = {}): SiteAss
     estimated,
     alongLine,
     classes,
-    cautions: siteCautions(input, extrapolated, deepestKnown, draws > 0),
+    cautions: [
+      ...siteCautions(input, extrapolated, deepestKnown, draws > 0),
+      ...(hidden !== undefined && hiddenProfile !== undefined && hiddenClasses!.some((c, i) => c.cls !== classes[i].class) ? [hiddenSaturatedCaution(hidden, vs30(hiddenProfile).vs30, hiddenClasses!.map((c, i) => `${STANDARDS[i].standard} ${c.cls}`))] : []),
+    ],
     draws,
     seed,
     vsProfile,
@@ -309,6 +344,14 @@ function drawVelocity(input: SiteInput, i: number, uniform: () => number, normal
   }
   const v = input.velocities[i];
   return Math.max(v * 0.05, v + input.velocitySes[i] * normal());
+}
+
+/**
+ * The caution of a line that may hide a saturated layer, raised only where that layer would change
+ * a class (a caution on every dry-soil-over-rock line would be read by no one).
+ */
+function hiddenSaturatedCaution(hidden: HiddenSaturatedLayer, vs30With: number, classes: string[]): Caution {
+  return caution('vs-hidden-saturated-layer', si`No layer in the band of saturated soil was found on this line, yet a water table may lie unseen above refractor ${hidden.refractor}: a saturated layer of Vp about ${vel(hidden.vp)} up to ${len(hidden.maxThickness)} thick would never arrive first (a hidden layer, Soske 1959), and the refractor would then be up to ${len(hidden.depthUnderestimate)} deeper than computed. Below the water table Vp follows the pore water, so such a layer is soil, not rock: with the Vs of the layer above it continued through it, Vs30 would be ${vel(vs30With)} and the classes ${classes.join(', ')}. The classes given assume no such layer; confirm the depth to water and to rock with a boring, a standpipe or a shear-wave measurement.`);
 }
 
 function caution(code: string, text: SiText): Caution {

@@ -1,4 +1,4 @@
-import { fromMetres, type LengthUnit } from '../../src/core/units.js';
+import { formatSe, fromMetres, type LengthUnit } from '../../src/core/units.js';
 
 /** Length in the display unit, with its unit. */
 export function length(metres: number | undefined, unit: LengthUnit, digits = 1): string {
@@ -18,7 +18,7 @@ export function velocityUnit(unit: LengthUnit): string {
 export function velocity(mps: number | undefined, se: number | undefined, unit: LengthUnit): string {
   if (mps === undefined || !Number.isFinite(mps)) return '–';
   const v = Math.round(fromMetres(mps, unit));
-  return se === undefined || !Number.isFinite(se) ? `${v} ${velocityUnit(unit)}` : `${v} ± ${Math.round(fromMetres(se, unit))} ${velocityUnit(unit)}`;
+  return se === undefined || !Number.isFinite(se) ? `${v} ${velocityUnit(unit)}` : `${v} ± ${formatSe(fromMetres(se, unit), 0)} ${velocityUnit(unit)}`;
 }
 
 export function ms(seconds: number | undefined, digits = 2): string {

@@ -1,5 +1,6 @@
 import { escapeHtml } from './escape.js';
 import { minOf, maxOf } from '../../core/extent.js';
+import { seDecimals } from '../../core/units.js';
 
 /** A JSON value at a dotted path ("layers.0.velocity_mps"), or undefined where there is none. */
 export function valueAt(document: unknown, path: string): unknown {
@@ -43,9 +44,10 @@ export class Figures {
     return span(`data-json="${escapeHtml(path)}"`, value, digits);
   }
 
-  /** value ± standard error, both from the document. */
+  /** value ± standard error, both from the document; a positive standard error gets the decimals it needs not to read as zero (seDecimals). */
   pm(path: string, sePath: string, digits: number): string {
-    return this.number(sePath) === undefined ? this.num(path, digits) : `${this.num(path, digits)} ± ${this.num(sePath, digits)}`;
+    const se = this.number(sePath);
+    return se === undefined ? this.num(path, digits) : `${this.num(path, digits)} ± ${this.num(sePath, se > 0 ? seDecimals(se, digits) : digits)}`;
   }
 
   /** The least or greatest value of `field` over the array at `path`. */

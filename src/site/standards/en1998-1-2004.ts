@@ -1,3 +1,4 @@
+import { len, si, vel } from '../../core/siText.js';
 import { VS30_DEPTH_M } from '../vs30.js';
 import type { SiteClassStandard } from './types.js';
 
@@ -24,6 +25,19 @@ export const EN_1998_1_2004: SiteClassStandard = {
   notFromVelocity: [
     { code: 'en1998-1-s1-s2', text: 'Ground types S1 (at least 10 m of soft clay or silt with PI > 40 and high water content) and S2 (liquefiable soils, sensitive clays, any soil not in A to E or S1) need special studies (Section 3.1.2); they cannot be assigned from shear-wave velocities.' },
   ],
+  // Ground type A is described in Table 3.1 as rock or rock-like formation with at most 5 m of
+  // weaker material at the surface, as well as by vs,30 > 800 m/s. No clause we know of reserves
+  // it for measured velocities in so many words, but an estimate from Vp cannot show the rock the
+  // description asks for, and the one way an estimate reaches A on a water-table line is the fit
+  // losing the saturated layer (rock then sits under dry soil): so an estimate there is reported
+  // as "B or stiffer", the way ASCE 7 reports its reserved classes (a decision of this program,
+  // DEVELOPERS.md "Site assessment rules").
+  measuredOnly: {
+    classes: ['A'],
+    label: 'B or stiffer',
+    clause: 'EN 1998-1:2004 Section 3.1.2 and Table 3.1',
+    note: (vs, label) => si`the estimated vs,30, ${vel(vs)}, lies in the velocity range of ground type A (above ${vel(800)}), but ground type A rests on the description of Table 3.1 (rock or other rock-like geological formation, with at most ${len(5, 0)} of weaker material at the surface) and on measured shear-wave velocities, which an estimate from P-wave velocities cannot give: reported as "${label}". Confirm the ground type with a shear-wave measurement and a boring, and with the National Annex that applies.`,
+  },
 };
 
 /** Ground type E: 5 to 20 m of soil with vs of type C or D over material with vs > 800 m/s. */

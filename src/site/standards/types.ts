@@ -1,3 +1,5 @@
+import type { SiText } from '../../core/siText.js';
+
 /** One class of a site-class table: velocities above `lower` up to and including `upper`, in m/s. */
 export interface ClassBand {
   class: string;
@@ -31,7 +33,16 @@ export interface SiteClassStandard {
    * Classes the standard reserves for measured shear-wave velocities: an estimate that falls in
    * one of them is reported as `label`, never as the class itself.
    */
-  measuredOnly?: { classes: string[]; label: string; clause: string };
+  measuredOnly?: {
+    classes: string[];
+    label: string;
+    clause: string;
+    /**
+     * The note shown with an estimate in one of those classes, when the standard's own reason is
+     * not a reservation for measured velocities (EN 1998-1 ground type A rests on a description).
+     */
+    note?: (vs: number, label: string) => SiText;
+  };
   /** Rule for estimated (not measured) velocities, when the edition has one. */
   estimatedFactor?: number;
 }

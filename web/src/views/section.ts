@@ -1,4 +1,4 @@
-import { fromMetres } from '../../../src/core/units.js';
+import { formatSe, fromMetres } from '../../../src/core/units.js';
 import { el, escapeHtml, length, velocity } from '../format.js';
 import { draw, layerColour, resize, type PlotData, type PlotElement } from '../plotly.js';
 import type { AppContext, Focus, View } from './context.js';
@@ -40,13 +40,13 @@ export function sectionView(root: HTMLElement, ctx: AppContext): View {
             type: 'scatter', mode: method === 'intercept-time' ? 'markers' : 'lines', name: `refractor ${refractor.index}, ${method}`,
             x: points.map((p) => x(p.x)), y: points.map((p) => x(p.elev)),
             line: { color: colour, width: 1.2, dash: METHOD_DASH[method] ?? 'solid' }, marker: { symbol: 'square-open', size: 8, color: colour },
-            text: points.map((p) => `${method}: depth ${length(p.depth, unit, 2)} ± ${length(p.depthSe, unit, 2)}`), hovertemplate: '%{text}<extra></extra>',
+            text: points.map((p) => `${method}: depth ${length(p.depth, unit, 2)} ± ${formatSe(fromMetres(p.depthSe, unit), 2)} ${unit}`), hovertemplate: '%{text}<extra></extra>',
           });
         }
         data.push({
           type: 'scatter', mode: 'lines', name: `refractor ${refractor.index}, recommended (${escapeHtml(refractor.method)})`,
           x: pts.map((p) => x(p.x)), y: pts.map((p) => x(p.elev)), line: { color: colour, width: 4 },
-          text: pts.map((p, i) => `refractor ${refractor.index} at x = ${length(p.x, unit, 2)}<br>depth ${length(p.depth, unit, 2)} ± ${length(p.depthSe, unit, 2)}, elevation ${length(p.elev, unit, 2)}<br>${escapeHtml(refractor.pointMethods[i] ?? refractor.method)}`),
+          text: pts.map((p, i) => `refractor ${refractor.index} at x = ${length(p.x, unit, 2)}<br>depth ${length(p.depth, unit, 2)} ± ${formatSe(fromMetres(p.depthSe, unit), 2)} ${unit}, elevation ${length(p.elev, unit, 2)}<br>${escapeHtml(refractor.pointMethods[i] ?? refractor.method)}`),
           hovertemplate: '%{text}<extra></extra>',
         });
       }
