@@ -65,7 +65,7 @@ lines given a Poisson's ratio:
                            ESTIMATE Vs from Vp (the classes are then labelled estimated)
   --vp-vs R[,R...]         the same as a Vp/Vs ratio
   --layer-poisson N:NU     Poisson's ratio of layer N alone (1 = top); repeatable. A layer whose
-                           Vp lies in 1450-2000 m/s (saturated soil) or below it needs its own
+                           Vp lies in 1400-2000 m/s (saturated soil) or below it needs its own
                            value (this, --layer-vs, or a --poisson list): one ratio for all
                            layers is not used there, and no class is estimated without it
   --layer-vs N:VS[:SE]     shear-wave velocity of layer N (m/s, or ft/s with --units ft), for

@@ -1,4 +1,3 @@
-import { WATER_TABLE_VP_MIN } from '../core/cautions.js';
 import { InputError } from '../core/errors.js';
 import { si, vel, type SiText } from '../core/siText.js';
 import { depthAt } from '../depth/delayProfile.js';
@@ -18,9 +17,17 @@ import { minOf, maxOf } from '../core/extent.js';
  */
 export const SATURATED_VP_MAX = 2000;
 
+/**
+ * Lowest Vp, in m/s, taken as possibly saturated soil when Vs is estimated from Vp: 5 % under
+ * the speed of sound in water (about 1480 m/s), below the water-table warning's 1450 m/s because
+ * the fitted Vp of a saturated layer also runs low (forward-model water-table lines gave 1410 and
+ * 1431 m/s for layers of 1481 and 1487 m/s; Vs from those at ν 0.3 would be 754 and 765 m/s).
+ */
+export const SATURATED_VP_MIN = 1400;
+
 /** Whether a P layer's velocity may be that of saturated soil, for the Vs estimate. */
 function maybeSaturated(velocity: number): boolean {
-  return velocity >= WATER_TABLE_VP_MIN && velocity <= SATURATED_VP_MAX;
+  return velocity >= SATURATED_VP_MIN && velocity <= SATURATED_VP_MAX;
 }
 
 /** Half-width of the range a Poisson's ratio is drawn from uniformly in the Monte Carlo, by default. */
@@ -70,7 +77,7 @@ export function siteInputFromInterpretation(
 /**
  * The site-assessment input of an interpretation, with the per-layer Vs profile. On a P line,
  * Vs is had from Vp only where it can be: never through a layer whose Vp lies in the band of
- * saturated soil (1450-2000 m/s, SATURATED_VP_MAX) nor through a layer below it (below the water table Vp follows
+ * saturated soil (1400-2000 m/s, SATURATED_VP_MIN..SATURATED_VP_MAX) nor through a layer below it (below the water table Vp follows
  * the pore water, about 1480-1500 m/s, whatever the soil's stiffness: common practice), unless
  * the user gives that layer's own Poisson's ratio or Vs. Otherwise no input, and `refused` says
  * why and what to provide.
@@ -112,7 +119,7 @@ export const HIDDEN_SATURATED_VP = 1500;
 
 /**
  * A water table the fit may have lost: on a P line with no layer in the band of saturated soil,
- * the shallowest refractor that jumps across that band (the layer above slower than 1450 m/s,
+ * the shallowest refractor that jumps across that band (the layer above slower than SATURATED_VP_MIN,
  * the refractor faster than SATURATED_VP_MAX) could hide a saturated layer of Vp about
  * HIDDEN_SATURATED_VP above it. Its largest thickness and the depth error it would cause are
  * Soske's hidden-layer limit (depth/hiddenLayer.ts), with the intercept times worked back from
@@ -132,7 +139,7 @@ export function hiddenSaturatedLayer(layers: Layer[], refractors: Refractor[]): 
     return t;
   };
   for (let k = 1; k < v.length && k <= z.length; k++) {
-    if (!(v[k - 1] < WATER_TABLE_VP_MIN && v[k] > SATURATED_VP_MAX)) continue;
+    if (!(v[k - 1] < SATURATED_VP_MIN && v[k] > SATURATED_VP_MAX)) continue;
     const limit = hiddenLayerLimit(k, v[k - 1], v[k], intercept(k - 1), intercept(k), HIDDEN_SATURATED_VP);
     if (limit === undefined || !(limit.depthUnderestimate > 0)) return undefined;
     return { refractor: k, vp: HIDDEN_SATURATED_VP, maxThickness: limit.maxThickness, depthUnderestimate: limit.depthUnderestimate };
@@ -148,7 +155,7 @@ function refusal(missing: VsLayer[]): SiText {
   const inBand = band.length > 0 ? si`layer${band.length > 1 ? 's' : ''} ${names(band)} (Vp ${vel(band.map((l) => l.vp!))}) ${band.length > 1 ? 'lie' : 'lies'} in the range of saturated soil` : si``;
   const under = below.length > 0 ? si`${band.length > 0 ? ' and ' : ''}layer${below.length > 1 ? 's' : ''} ${names(below)} ${below.length > 1 ? 'lie' : 'lies'} below the water table` : si``;
   const head = si`no site class is estimated from Vp: `;
-  const tail = si` (a P-wave velocity of ${vel([WATER_TABLE_VP_MIN, SATURATED_VP_MAX], 0, '-')} may be saturated soil, the water table at its top). Below the water table Vp follows the pore water rather than the soil, so one Poisson's ratio for every layer cannot turn it into a Vs. Give each such layer its own value from a boring or a downhole test (for example --layer-poisson ${example}:0.45 or --layer-vs ${example}:250), or shoot an S-wave line`;
+  const tail = si` (a P-wave velocity of ${vel([SATURATED_VP_MIN, SATURATED_VP_MAX], 0, '-')} may be saturated soil, the water table at its top). Below the water table Vp follows the pore water rather than the soil, so one Poisson's ratio for every layer cannot turn it into a Vs. Give each such layer its own value from a boring or a downhole test (for example --layer-poisson ${example}:0.45 or --layer-vs ${example}:250), or shoot an S-wave line`;
   const pieces = [head, inBand, under, tail];
   return { text: pieces.map((p) => p.text).join(''), parts: pieces.flatMap((p) => p.parts) };
 }

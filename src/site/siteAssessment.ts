@@ -46,7 +46,7 @@ export interface VsLayer {
   /** Shear-wave velocity and its standard error, in m/s (the standard error from the Monte Carlo when one ran). */
   vs?: number;
   vsSe?: number;
-  /** Saturated soil suspected: Vp in 1450-2000 m/s (SATURATED_VP_MAX), or a layer below such a one. */
+  /** Saturated soil suspected: Vp in 1400-2000 m/s (SATURATED_VP_MIN..SATURATED_VP_MAX), or a layer below such a one. */
   saturated?: 'water-band' | 'below-water-table';
 }
 

@@ -97,6 +97,18 @@ describe('a water table the fit may have lost: Soske\'s hidden layer above a ref
     expect(hidden.depthUnderestimate).toBeCloseTo(1.9099, 3);
   });
 
+  it('planSite takes a fitted Vp of 1420 m/s as possibly saturated (1400-2000 m/s): fitted saturated layers run up to 5 % low', () => {
+    // Water-table forward-model lines fitted 1410 and 1431 m/s to layers of 1481 and 1487 m/s; the
+    // speed of sound in water is about 1480 m/s (common practice). At ν 0.3 Vs would be 1420 / 1.8708
+    // = 759 m/s, a rock-like Vs for saturated soil.
+    const plan = planSite({ file: 'x.csv', wave: 'P', layers: [layer(1, 380), layer(2, 1420), layer(3, 4000)], refractors: [refractor(1, 4), refractor(2, 20)] } as never, [0, 10, 20], { poisson: [0.3] });
+    expect(plan.input).toBeUndefined();
+    expect(plan.vsLayers!.map((l) => l.saturated)).toEqual([undefined, 'water-band', 'below-water-table']);
+    expect(plan.refused!.text).toMatch(/a P-wave velocity of 1400-2000 m\/s may be saturated soil/);
+    const dry = planSite({ file: 'x.csv', wave: 'P', layers: [layer(1, 380), layer(2, 1350), layer(3, 4000)], refractors: [refractor(1, 4), refractor(2, 20)] } as never, [0, 10, 20], { poisson: [0.3] });
+    expect(dry.input).toBeDefined();
+  });
+
   it('hiddenSaturatedLayer is undefined where a layer lies in the saturated band, or no refractor jumps across it', () => {
     expect(hiddenSaturatedLayer([layer(1, 350), layer(2, 1520), layer(3, 3500)] as never, [refractor(1, 3), refractor(2, 10)] as never)).toBeUndefined();
     expect(hiddenSaturatedLayer([layer(1, 350), layer(2, 1300)] as never, [refractor(1, 4)] as never)).toBeUndefined();

@@ -104,7 +104,7 @@ describe('planSite rejects what it cannot use', () => {
 });
 
 describe('planSite and a saturated layer fitted fast', () => {
-  it('planSite treats a fitted Vp of 1750 m/s as possibly saturated soil (1450-2000 m/s, common practice) and asks for its own value', () => {
+  it('planSite treats a fitted Vp of 1750 m/s as possibly saturated soil (1400-2000 m/s, common practice) and asks for its own value', () => {
     // Forward-model lines gave 1706-1849 m/s for saturated layers of 1539-1607 m/s; the water-table
     // warning's band (1450-1650 m/s) would miss them.
     const layer = (index: number, velocity: number) => ({ index, velocity, velocitySe: 20, reversed: true, segmentCount: 2 });

@@ -52,7 +52,7 @@ for (let seed = first; seed < first + lines; seed++) {
     classes = result.site?.classes.map((c) => ({ standard: c.standard, class: c.class, byEstimate: c.classByEstimate ?? c.class }));
     codes = (result.site?.cautions ?? []).map((c) => c.code);
   }
-  const water = velocities.some((v) => v >= 1450 && v <= 2000);
+  const water = velocities.some((v) => v >= 1400 && v <= 2000);
   if (!water) lost++;
   const caution = codes.includes('vs-hidden-saturated-layer');
   if (caution) hiddenCaution++;
