@@ -32,4 +32,15 @@ describe('layer count of the joint model', () => {
     expect(result.layers, line.name).toHaveLength(3);
     errors.forEach((e, i) => expect(e, `layer ${i + 1}`).toBeLessThan(0.05));
   });
+
+  it('interpret(a channelled rock head under rolling ground, shots off both ends) invents no layer from an off-end shot: two layers within 5 %', () => {
+    // Seed 46: 48 geophones at 1 m, 654 over 2017 m/s at 7.1 m, pick noise 0.40 ms. The segments
+    // put the shot 41 m off the end on a refractor of its own (1395 m/s in the joint model) above
+    // the rock seen by the shots inside the spread, whose picks lie at shorter offsets.
+    const { line, result, errors } = velocityErrors(46);
+    expect(result.layers, line.name).toHaveLength(2);
+    errors.forEach((e, i) => expect(e, `layer ${i + 1}`).toBeLessThan(0.05));
+    const three = result.joint!.candidates.find((c) => c.refractors === 2)!;
+    expect(three.rejected).toMatch(/arrives first at larger offsets/);
+  });
 });
