@@ -1,4 +1,5 @@
 import type { LinearOperator } from './lsqr.js';
+import type { CompressedRows } from './sparseLeastSquares.js';
 
 /**
  * A sparse matrix built row by row and stored in compressed rows (typed arrays): each pick of a
@@ -29,9 +30,10 @@ export class SparseRows {
 
   /**
    * The matrix frozen as an operator whose columns are scaled to unit Euclidean norm (a diagonal
-   * preconditioner: the solution of the scaled system is D⁻¹ x), with the scale factors D.
+   * preconditioner: the solution of the scaled system is D⁻¹ x), with the scale factors D, and the
+   * same scaled matrix as compressed rows.
    */
-  freeze(): { operator: LinearOperator & { row(i: number, x: Float64Array): number }; scales: Float64Array; b: Float64Array } {
+  freeze(): { operator: LinearOperator & { row(i: number, x: Float64Array): number }; matrix: CompressedRows; scales: Float64Array; b: Float64Array } {
     const starts = Int32Array.from(this.starts);
     const columns = Int32Array.from(this.columns);
     const values = Float64Array.from(this.values);
@@ -64,6 +66,6 @@ export class SparseRows {
         return sum;
       },
     };
-    return { operator, scales, b: Float64Array.from(this.rhs) };
+    return { operator, matrix: { rows, cols: this.cols, starts, columns, values }, scales, b: Float64Array.from(this.rhs) };
   }
 }

@@ -1,5 +1,9 @@
 import { lsqr, type LinearOperator } from '../core/lsqr.js';
 import { SparseRows } from '../core/sparseRows.js';
+import { directLeastSquares } from '../core/sparseLeastSquares.js';
+
+/** Relative tolerance of the least-squares solution (LSQR's atol and btol, and the direct solution's test). */
+const TOLERANCE = 1e-12;
 
 /** One first break as the joint model sees it. */
 export interface ModelPick {
@@ -75,7 +79,7 @@ export interface TimeTermModel {
   parameters: number;
   /** Residual standard deviation, in seconds: √(rss / (used − parameters)). */
   sigma: number;
-  /** Iterations LSQR took for the solution. */
+  /** Iterations LSQR took for the solution (0 when the normal equations gave it directly). */
   lsqrIterations: number;
 }
 
@@ -88,10 +92,12 @@ export interface TimeTermModel {
  * Sources inside the spread are tied to the receiver delay at their position (interpolated); a
  * refractor with no tied source gets equal mean source and receiver delays. Neighbouring receiver
  * delays are held weakly smooth (SMOOTHING_WEIGHT on their second difference). Solved as sparse
- * least squares by LSQR (Paige & Saunders 1982) with unit-norm column scaling. Standard errors of
+ * least squares with unit-norm column scaling: by the normal equations (core/sparseLeastSquares,
+ * Cholesky in skyline storage, one refinement step) where they are well conditioned and meet LSQR's
+ * stopping rules, else by LSQR (Paige & Saunders 1982). Standard errors of
  * the slownesses from σ²(AᵀA)⁻¹, σ² = rss / (n − p); the diagonal element of the inverse for
- * column j is 1 / ‖aⱼ − A₋ⱼc‖², the residual of that column regressed on the others (one more
- * LSQR solve per layer, no dense matrix).
+ * column j comes from the Cholesky factor, or with LSQR is 1 / ‖aⱼ − A₋ⱼc‖², the residual of that
+ * column regressed on the others (one more LSQR solve per layer, no dense matrix).
  *
  * For a plane refractor dipping at δ the head-wave slowness along the horizontal is cos δ / V
  * (exact; Telford et al. 1990, §4.2.3 rearranged), so the slowness here is apparent by that factor.
@@ -172,8 +178,10 @@ export function solveTimeTerms(geometry: ModelGeometry, picks: ModelPick[], arri
       constraints++;
     }
   }
-  const { operator, scales, b } = matrix.freeze();
-  const solved = lsqr(operator, b, { atol: 1e-12, btol: 1e-12 });
+  const frozen = matrix.freeze();
+  const { operator, scales, b } = frozen;
+  const direct = directLeastSquares(frozen.matrix, b, eliminationOrder(refractors, sourceColumn, receiverColumn, columns), TOLERANCE);
+  const solved = direct ?? lsqr(operator, b, { atol: TOLERANCE, btol: TOLERANCE });
   const solution = Float64Array.from(solved.x, (v, j) => v * scales[j]);
   const residuals = new Float64Array(picks.length).fill(NaN);
   let rss = 0;
@@ -191,7 +199,7 @@ export function solveTimeTerms(geometry: ModelGeometry, picks: ModelPick[], arri
   const slownessSe = slowness.map((_, j) => {
     if (held[j]) return held[j]!.se;
     if (options.errors === false) return NaN;
-    const inverse = inverseDiagonal(operator, j);
+    const inverse = direct !== undefined ? direct.inverseDiagonal(j) : inverseDiagonal(operator, j);
     return Number.isFinite(inverse) ? sigma * Math.sqrt(inverse) * scales[j] : Infinity;
   });
   const delaysOf = (table: Int32Array[], count: number) => table.map((c) => Float64Array.from({ length: count }, (_, i) => (c[i] >= 0 ? solution[c[i]] : NaN)));
@@ -206,8 +214,25 @@ export function solveTimeTerms(geometry: ModelGeometry, picks: ModelPick[], arri
     used,
     parameters,
     sigma,
-    lsqrIterations: solved.iterations,
+    lsqrIterations: direct !== undefined ? 0 : (solved as { iterations: number }).iterations,
   };
+}
+
+/**
+ * The unknowns in the order of elimination for the direct solution: on each refractor its receiver
+ * delays along the line (coupled only to their neighbours, by the smoothness and tie rows), then
+ * its source delays (each coupled to its receivers); the slownesses, coupled to everything, last.
+ * The normal matrix is then banded but for a few full rows, and so is its Cholesky factor.
+ */
+function eliminationOrder(refractors: number, sourceColumn: Int32Array[], receiverColumn: Int32Array[], columns: number): Int32Array {
+  const order = new Int32Array(columns);
+  let next = 0;
+  for (let k = 0; k < refractors; k++) {
+    for (const c of receiverColumn[k]) if (c >= 0) order[next++] = c;
+    for (const c of sourceColumn[k]) if (c >= 0) order[next++] = c;
+  }
+  for (let k = 0; k <= refractors; k++) order[next++] = k;
+  return order;
 }
 
 /**
