@@ -110,16 +110,17 @@ stage('intercept times, reciprocal times', none, () => {
   receiverGround(table);
 });
 const profileInput = { fits, layers: usable, interceptPoints: intercept, receivers: ground, spacing, pickNoise: lineRms };
+const reciprocal = reciprocalChecks(fits, lineRms, log());
+const noiseSigma = pickNoise(fits, spacing, reciprocal.map((c) => c.timeAB - c.timeBA), lineRms, []).sigma;
 const refractors = refractorProfiles(profileInput, log());
 stage('depth methods (plus-minus, GRM, delay-time)', none, () => refractorProfiles(profileInput, log()));
 // The inversion replaces the profiles and velocities it is given: fresh copies each run.
 stage('layered inversion (refineByInversion)', () => ({ refractors: structuredClone(refractors), layers: structuredClone(usable) }),
-  (input) => refineByInversion({ fits, layers: input.layers, refractors: input.refractors, receivers: ground, spacing, wave: 'P' }, {}, log()), 11);
+  (input) => refineByInversion({ fits, layers: input.layers, refractors: input.refractors, receivers: ground, spacing, wave: 'P', pickNoise: noiseSigma }, {}, log()), 11);
 const result = interpret(table, {}, log());
 const groundAt = (x: number) => linearAt(receivers, receivers.map(() => 100), x);
 const checked = result.layers.slice(0, result.refractors.length + 1);
 stage('forward check', none, () => forwardCheck(result.fits, checked, result.refractors, groundAt, spacing), 30);
-const reciprocal = reciprocalChecks(fits, lineRms, log());
 stage('pick noise', none, () => pickNoise(fits, spacing, reciprocal.map((c) => c.timeAB - c.timeBA), lineRms, []), 30);
 
 const sum = { wall: 0, cpu: 0 };

@@ -132,8 +132,9 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   const pickNoise = lineFitRms(segmentFits);
   const reciprocal = reciprocalChecks(fits, pickNoise, log);
   const refractors: RefractorMethods[] = refractorProfiles({ fits, layers: usable, interceptPoints: intercept, receivers, spacing, pickNoise }, log);
+  const noise = estimatePickNoise(fits, spacing, reciprocal.map((c) => c.timeAB - c.timeBA), pickNoise, pickConfidences(table));
   // The layered inversion: kept (and recommended) only when it explains the picks better.
-  const inversion = refineByInversion({ fits, layers: usable, refractors, receivers, spacing, wave }, options.inversion, log);
+  const inversion = refineByInversion({ fits, layers: usable, refractors, receivers, spacing, wave, pickNoise: noise.sigma }, options.inversion, log);
   if (inversion !== undefined) {
     history.push({ step: 'inversion', parameters: { method: 'Levenberg-Marquardt (Levenberg 1944; Marquardt 1963)', kept: inversion.kept, smoothing: inversion.smoothing, node_spacing_m: inversion.nodeSpacing, lateral_gradient: inversion.lateralGradient, iterations: inversion.iterations, keep_margin: `RMS lower by ${KEEP_MARGIN * 100} % and ${KEEP_MARGIN_SECONDS * 1e3} ms`, time_shift: inversion.timeShift !== undefined } });
   }
@@ -141,7 +142,6 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   const receiverElevs = receivers.map((r) => r.elev);
   const ground = (x: number) => linearAt(groundXs, receiverElevs, x);
   const forward = forwardCheck(fits, usable, refractors, ground, spacing);
-  const noise = estimatePickNoise(fits, spacing, reciprocal.map((c) => c.timeAB - c.timeBA), pickNoise, pickConfidences(table));
   if (forward !== undefined && isForwardMisfit(forward.rms, noise.sigma)) {
     log.add('forward-misfit', si`first arrivals computed through the interpreted section differ from the picks by ${(forward.rms * 1e3).toFixed(2)} ms RMS, against a pick noise of ${(noise.sigma * 1e3).toFixed(2)} ms (from the ${noise.source} of the picks), worst ${(forward.worst.difference * 1e3).toFixed(1)} ms for source ${forward.worst.sourceId} at x = ${len(forward.worst.receiverX, 2)}: the section does not explain the picks well; look for a missed layer, a wrong segment choice or a lateral change`);
   }

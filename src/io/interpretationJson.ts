@@ -79,6 +79,7 @@ function inversionJson(inv: InversionSummary) {
     start_velocities_mps: inv.startVelocities.map((v) => round(v, 1)),
     velocities_mps: inv.velocities?.map((v) => round(v, 1)) ?? null,
     velocity_ses_mps: inv.velocitySes?.map((v) => round(v, 1)) ?? null,
+    prior_layers: inv.priorLayers,
     ...(inv.timeShift !== undefined ? { time_shift_ms: round(inv.timeShift * 1e3, 3), time_shift_se_ms: round((inv.timeShiftSe ?? NaN) * 1e3, 3) } : {}),
     ...(inv.gradients ? { gradients_mps_per_m: inv.gradients.map((v) => round(v, 4)), gradient_ses_mps_per_m: inv.gradientSes?.map((v) => round(v, 4)) } : {}),
   };

@@ -34,6 +34,16 @@ export interface LayeredInversionOptions {
    * lines whose direct-wave lines do not pass through the origin.
    */
   timeShift?: boolean;
+  /**
+   * Prior velocities by layer (top down; undefined for none), in m/s with standard errors: each
+   * adds ((v − velocity) · priorNoise / se)² to the objective, as a pick of noise priorNoise would
+   * (damped least squares with a priori data, Jackson 1979, Geophys. J. R. astr. Soc. 57, 137-157).
+   * For a layer whose head waves are seen from one direction only, where the picks leave its
+   * velocity free to trade with the refractor's shape (refineByInversion).
+   */
+  velocityPriors?: ({ velocity: number; se: number } | undefined)[];
+  /** Pick noise, in seconds, that weights the velocity priors; needed with velocityPriors. */
+  priorNoise?: number;
 }
 
 /** Where the inversion starts: the ground, a depth profile per refractor, layer velocities. */
@@ -155,7 +165,22 @@ export function layeredInversion(picks: InversionPick[], start: InversionStart, 
 
   // The smoothness rows R (constant): RᵀR, dense.
   const rtr = smoothnessNormal(start.velocities, refractors, nodes, unknowns, smoothing);
-  const regularisation = (p: Float64Array) => quadratic(rtr, p, unknowns);
+  // The velocity priors: unknown index, prior value and weight (seconds per m/s).
+  const priors = (options.velocityPriors ?? []).flatMap((prior, m) => {
+    if (prior === undefined || m > refractors) return [];
+    const weight = (options.priorNoise ?? NaN) / prior.se;
+    if (!(weight > 0 && Number.isFinite(weight))) throw new RangeError(`layeredInversion velocity prior of layer ${m + 1} needs a positive pick noise and standard error`);
+    return [{ index: velocityIndex(refractors, nodes, m), value: prior.velocity, weight2: weight * weight }];
+  });
+  const regularisation = (p: Float64Array) => quadratic(rtr, p, unknowns) + priors.reduce((sum, q) => sum + q.weight2 * (p[q.index] - q.value) ** 2, 0);
+  const normalOf = (rows: SparseRow[], residuals: Float64Array, p: Float64Array) => {
+    const system = normalEquations(rows, residuals, rtr, p, unknowns, refractors * nodes, shiftIndex);
+    for (const q of priors) {
+      system.normal[q.index * unknowns + q.index] += q.weight2;
+      system.gradient[q.index] -= q.weight2 * (p[q.index] - q.value);
+    }
+    return system;
+  };
 
   // One workspace for the Jacobian rows: each evaluation with derivatives replaces the last.
   const workspace = { index: new Int32Array(0), value: new Float64Array(0) };
@@ -181,7 +206,7 @@ export function layeredInversion(picks: InversionPick[], start: InversionStart, 
   let iterations = 0;
   let stopReason: LayeredInversion['stopReason'] = 'iteration limit';
   while (iterations < maxIterations) {
-    const { normal, gradient } = normalEquations(current.rows!, current.residuals, rtr, p, unknowns, refractors * nodes, shiftIndex);
+    const { normal, gradient } = normalOf(current.rows!, current.residuals, p);
     let accepted: { p: Float64Array; objective: number } | undefined;
     while (lambda < 1e8) {
       const trial = dampedStep(normal, gradient, lambda, unknowns);
@@ -206,8 +231,9 @@ export function layeredInversion(picks: InversionPick[], start: InversionStart, 
   }
 
   // Covariance at the final section.
-  const { normal } = normalEquations(current.rows!, current.residuals, rtr, p, unknowns, refractors * nodes, shiftIndex);
+  const { normal } = normalOf(current.rows!, current.residuals, p);
   const jtj = normal.map((v, i) => v - rtr[i]);
+  for (const q of priors) jtj[q.index * unknowns + q.index] -= q.weight2;
   const ridge = 1e-12 * maxDiagonal(normal, unknowns);
   for (let i = 0; i < unknowns; i++) normal[i * unknowns + i] += ridge;
   const factor = choleskyFactor(normal, unknowns);

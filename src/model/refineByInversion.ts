@@ -3,6 +3,7 @@ import { checkLayerCautions } from '../core/cautions.js';
 import type { BranchFit, Layer, RefractorPoint, Wave } from '../core/types.js';
 import { WarningLog } from '../core/warnings.js';
 import { hiddenLayerOf, type RefractorMethods } from '../depth/profiles.js';
+import { MIN_REVERSED_RECEIVERS } from './jointModel.js';
 import { DEFAULT_SMOOTHING, layeredInversion, type InversionPick, type LayeredInversion, type LayeredInversionOptions } from './layeredInversion.js';
 
 /** The inverted section is kept only when it lowers the RMS misfit over every pick by at least this fraction… */
@@ -35,6 +36,11 @@ export interface InversionSummary {
   lateralGradient: boolean;
   /** Layer velocities before and after, in m/s, with the standard errors after. */
   startVelocities: number[];
+  /**
+   * Layers (1 = top) whose start velocity entered as a prior with its standard error: their head
+   * waves are recorded from both directions at fewer than MIN_REVERSED_RECEIVERS receivers.
+   */
+  priorLayers: number[];
   velocities?: number[];
   velocitySes?: number[];
   /** A time shift common to every pick (trigger delay), in seconds, with its standard error: fitted where the direct-wave lines miss the origin. */
@@ -54,6 +60,8 @@ export interface RefineInput {
   receivers: { x: number; elev: number }[];
   spacing: number;
   wave: Wave;
+  /** Pick noise, in seconds: the weight of the velocity priors (model/pickNoise). */
+  pickNoise: number;
 }
 
 /**
@@ -75,7 +83,12 @@ export function refineByInversion(input: RefineInput, options: false | LayeredIn
   const nodeSpacing = options?.nodeSpacing ?? spacing;
   const lateralGradient = options?.lateralGradient ?? false;
   const startVelocities = layers.slice(0, refractors.length + 1).map((l) => l.velocity);
-  const base = { kept: false, iterations: 0, smoothing, nodeSpacing, lateralGradient, startVelocities };
+  // A layer seen from one direction only: its plane-layer velocity, with its standard error, is a
+  // prior (the picks alone leave the velocity free to trade with the refractor's shape).
+  const velocityPriors = options?.velocityPriors ?? layers.slice(0, refractors.length + 1).map((l, m) => (
+    m > 0 && reversedReceivers(fits, m + 1) < MIN_REVERSED_RECEIVERS && l.velocitySe > 0 && Number.isFinite(l.velocitySe) ? { velocity: l.velocity, se: l.velocitySe } : undefined));
+  const priorLayers = velocityPriors.flatMap((q, m) => (q !== undefined ? [m + 1] : []));
+  const base = { kept: false, iterations: 0, smoothing, nodeSpacing, lateralGradient, startVelocities, priorLayers };
   const picks = fittedPicks(fits);
   const empty = refractors.find((r) => r.points.length === 0);
   if (empty !== undefined) {
@@ -93,7 +106,7 @@ export function refineByInversion(input: RefineInput, options: false | LayeredIn
       receiverXs,
       velocities: startVelocities,
       refractors: refractors.map((r) => r.points.map((p) => ({ x: p.x, elev: p.elev }))),
-    }, { ...options, smoothing, nodeSpacing, lateralGradient, timeShift: options?.timeShift ?? layers[0].throughOrigin === false });
+    }, { ...options, smoothing, nodeSpacing, lateralGradient, velocityPriors, priorNoise: options?.priorNoise ?? input.pickNoise, timeShift: options?.timeShift ?? layers[0].throughOrigin === false });
   } catch (error) {
     if (!(error instanceof RangeError)) throw error;
     const reason = error.message;
@@ -158,6 +171,31 @@ export function refineByInversion(input: RefineInput, options: false | LayeredIn
     if (!log.items.some((v) => v.code === 'water-table' && v.layer === w.layer)) log.items.push(w);
   }
   return summary;
+}
+
+/**
+ * Receivers at which the head waves of a layer (2 = under the first refractor) are picked from
+ * both directions. With fewer than MIN_REVERSED_RECEIVERS, the layer's velocity trades with the
+ * shape of the refractor above it at no cost in misfit: a head wave seen from one side only fixes
+ * the sum of a receiver's delay and its offset over the velocity, not each of them (the time-term
+ * equations, Willmore & Bancroft 1960; the up-dip and down-dip pair of Telford et al. 1990, §4.3,
+ * needs a plane refractor to separate them). Its plane-layer velocity then enters as a prior.
+ */
+export function reversedReceivers(fits: BranchFit[], layer: number): number {
+  const sides = new Map<number, Set<string>>();
+  for (const f of fits) {
+    const outliers = new Set(f.outlierRows);
+    for (const s of f.segments) {
+      if (s.layer !== layer) continue;
+      for (let i = s.start; i < s.end; i++) {
+        const p = f.branch.picks[i];
+        if (outliers.has(p.row)) continue;
+        if (!sides.has(p.receiverX)) sides.set(p.receiverX, new Set());
+        sides.get(p.receiverX)!.add(f.branch.side);
+      }
+    }
+  }
+  return [...sides.values()].filter((s) => s.size === 2).length;
 }
 
 /** Every pick the line fits used (outliers left out), once each (zero-offset picks join both branches of their source). */
