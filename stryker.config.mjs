@@ -25,9 +25,12 @@ if (files !== undefined && files.length > 0 && selected === undefined) {
   throw new Error('MUTATION_FILES needs MUTATION_MODULE (the module whose tests run against the mutants)');
 }
 const narrowed = files !== undefined && files.length > 0;
+// MUTATION_TESTS (read by vitest.mutation.config.ts) runs other tests against the mutants; such a
+// run keeps its own folder too, its name ending in the tests' names.
+const tests = process.env.MUTATION_TESTS?.trim() ? `@${process.env.MUTATION_TESTS.replace(/[^A-Za-z0-9.+-]+/g, '_')}` : '';
 const folder = narrowed
-  ? `reports/mutation/${selected}/${files.join('+').replace(/[^A-Za-z0-9.+-]+/g, '_')}`
-  : `reports/mutation/${selected ?? 'all'}`;
+  ? `reports/mutation/${selected}/${files.join('+').replace(/[^A-Za-z0-9.+-]+/g, '_')}${tests}`
+  : `reports/mutation/${selected ?? 'all'}${tests}`;
 
 export default {
   testRunner: 'vitest',
