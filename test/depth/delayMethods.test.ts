@@ -3,6 +3,7 @@ import { depthFromDelay, velocitiesFor } from '../../src/depth/convert.js';
 import { depthAt, pointsFromDelays } from '../../src/depth/delayProfile.js';
 import { layerThickness } from '../../src/depth/interceptTime.js';
 import { plusMinus } from '../../src/depth/plusMinus.js';
+import { grm } from '../../src/depth/grm.js';
 import type { ReversedPair } from '../../src/depth/reversedPair.js';
 
 // Delay-time conversions and the plus-minus method on times written out by hand from the
@@ -145,5 +146,50 @@ describe('plusMinus (Hagedoorn 1959) on delay-time-model times', () => {
     short.reverse.xs = [2, 4];
     short.reverse.times = short.reverse.times.slice(0, 2);
     expect(plusMinus(short, 1)).toBeUndefined();
+  });
+});
+
+describe('grm (Palmer 1980) on times built with a known optimum XY', () => {
+  // Palmer's model: the forward ray leaves the refractor XY/2 before the geophone and the reverse
+  // ray XY/2 after it. With XY = 4 m: t_AG = a_A + b(G − 2) + (G − A)/V, t_BG = a_B + b(G + 2) + (B − G)/V,
+  // t_AB = a_A + a_B + (B − A)/V, b(x) = 4 ms + 2 ms · sin(x / 10), V = 2000 m/s; A at 0, B at 48 m,
+  // geophones every 2 m. Then at XY = 4 m, by hand, t_V = (t_AY − t_BX + t_AB)/2 is a straight line
+  // of slope 1/V and t_G = [t_AY + t_BX − (t_AB + XY/V)]/2 = b(G) exactly; at any other XY t_V bends.
+  const V = 2000;
+  const b = (x: number) => 4e-3 + 2e-3 * Math.sin(x / 10);
+  const aA = 5e-3;
+  const aB = 6e-3;
+  const forwardXs = Array.from({ length: 24 }, (_, i) => 2 + 2 * i); // 2 … 48
+  const reverseXs = Array.from({ length: 24 }, (_, i) => 2 * i); // 0 … 46
+  const pair: ReversedPair = {
+    forward: { sourceId: 'A', sourceX: 0, xs: forwardXs, times: forwardXs.map((x) => aA + b(x - 2) + x / V), phantomXs: [], shiftOverlaps: [] },
+    reverse: { sourceId: 'B', sourceX: 48, xs: reverseXs, times: reverseXs.map((x) => aB + b(x + 2) + (48 - x) / V), phantomXs: [], shiftOverlaps: [] },
+    reciprocal: aA + aB + 48 / V,
+    reciprocalReadings: 2,
+  };
+
+  it('grm finds XY = 4 m by the velocity analysis when the geometry says 0 m, and gives the delays b(G) and V there', () => {
+    let seen: { velocity: number; delays: { x: number; delay: number }[] } | undefined;
+    const profile = grm(pair, 1, 2, 3e-4, (velocity, delays) => { seen = { velocity, delays }; return 0; })!;
+    expect(profile.info.optimum_xy_m).toBe(4);
+    expect(profile.info.optimum_xy_basis).toBe('velocity analysis');
+    expect(profile.info.geometric_xy_m).toBe(0);
+    // Trials every half spacing from 0 to min(12 spacings, span/4) = 12 m.
+    expect((profile.info.xy_trials as { xy_m: number }[]).map((t) => t.xy_m)).toEqual(Array.from({ length: 13 }, (_, i) => i));
+    expect(profile.stations.map((s) => s.x)).toEqual(forwardXs.filter((x) => x <= 46));
+    for (const s of profile.stations) expect(s.delay).toBeCloseTo(b(s.x), 12);
+    expect(profile.velocity!.velocity).toBeCloseTo(V, 6);
+    // SE of a time-depth: √(2σ² + σ²/2)/2 for σ = 0.3 ms and two reciprocal readings.
+    expect(profile.stations[0].delaySe).toBeCloseTo(Math.sqrt(2.5) * 3e-4 / 2, 12);
+    // The geometric XY is computed from the XY = 0 time-depths, (t_AG + t_BG − t_AB)/2 = (b(G − 2) + b(G + 2))/2.
+    expect(seen!.delays.length).toBeGreaterThan(10);
+    for (const d of seen!.delays) expect(d.delay).toBeCloseTo((b(d.x - 2) + b(d.x + 2)) / 2, 12);
+  });
+
+  it('grm keeps the geometric XY when it fits as well as the best: the geometry says 4 m and 4 m is the best', () => {
+    const profile = grm(pair, 1, 2, 3e-4, () => 4.2)!;
+    expect(profile.info.optimum_xy_m).toBe(4);
+    expect(profile.info.optimum_xy_basis).toBe('geometry');
+    for (const s of profile.stations) expect(s.delay).toBeCloseTo(b(s.x), 12);
   });
 });
