@@ -4,6 +4,9 @@ import { depthAt, pointsFromDelays } from '../../src/depth/delayProfile.js';
 import { layerThickness } from '../../src/depth/interceptTime.js';
 import { plusMinus } from '../../src/depth/plusMinus.js';
 import { grm } from '../../src/depth/grm.js';
+import { reciprocalChecks, reciprocalTolerance } from '../../src/depth/reciprocal.js';
+import { WarningLog } from '../../src/core/warnings.js';
+import type { BranchFit } from '../../src/core/types.js';
 import type { ReversedPair } from '../../src/depth/reversedPair.js';
 
 // Delay-time conversions and the plus-minus method on times written out by hand from the
@@ -191,5 +194,51 @@ describe('grm (Palmer 1980) on times built with a known optimum XY', () => {
     expect(profile.info.optimum_xy_m).toBe(4);
     expect(profile.info.optimum_xy_basis).toBe('geometry');
     for (const s of profile.stations) expect(s.delay).toBeCloseTo(b(s.x), 12);
+  });
+});
+
+describe('reciprocalChecks', () => {
+  // Reciprocity: the first-break time from A at B equals the time from B at A (common practice
+  // allows about 1 ms on a hammer line, or three SDs of the difference of two picks, 3√2σ).
+  const branch = (sourceId: string, sourceX: number, side: 'forward' | 'reverse', xs: number[], time: (x: number) => number): BranchFit => ({
+    branch: {
+      sourceId, sourceX, sourceElev: 0, side,
+      picks: xs.map((x, i) => ({ sourceId, sourceX, sourceElev: 0, receiverX: x, receiverElev: 0, time: time(x), row: i + 2 })),
+      offsets: xs.map((x) => Math.abs(x - sourceX)), distances: xs.map((x) => Math.abs(x - sourceX)), times: xs.map(time),
+    },
+    segments: [], outlierRows: [], residualSd: 0, criterionBySegments: [], chosenBy: 'criterion',
+  });
+  const xs = Array.from({ length: 25 }, (_, i) => i * 2);
+
+  it('reciprocalTolerance is 1 ms, or 3√2σ when the pick noise σ is larger: 2.12 ms at 0.5 ms', () => {
+    expect(reciprocalTolerance(0.2e-3)).toBe(1e-3);
+    expect(reciprocalTolerance(0.5e-3)).toBeCloseTo(3 * Math.SQRT2 * 0.5e-3, 15);
+  });
+
+  it('reciprocalChecks compares the time from A at B with the time from B at A, interpolating at a source between geophones', () => {
+    // A at 0 shooting +x, B at 31 m (between geophones 30 and 32) shooting −x; t = 5 ms + x/1500,
+    // the reverse branch 1.5 ms late: from A at B, 5 + 31/1.5 = 25.667 ms (interpolated), from B at A 27.167 ms.
+    const a = branch('A', 0, 'forward', xs.slice(1), (x) => 5e-3 + x / 1500);
+    const b = branch('B', 31, 'reverse', xs.filter((x) => x < 31), (x) => 6.5e-3 + (31 - x) / 1500);
+    const log = new WarningLog();
+    const [check] = reciprocalChecks([a, b], 0.2e-3, log);
+    expect(check).toMatchObject({ sourceA: 'A', sourceB: 'B', tolerance: 1e-3, ok: false });
+    expect(check.timeAB).toBeCloseTo(5e-3 + 31 / 1500, 12);
+    expect(check.timeBA).toBeCloseTo(6.5e-3 + 31 / 1500, 12);
+    expect(check.difference).toBeCloseTo(1.5e-3, 12);
+    expect(log.withCode('reciprocal-time')[0].message).toMatch(/^reciprocal times of sources A and B differ by 1\.50 ms \(25\.67 and 27\.17 ms\), more than the 1\.00 ms tolerance/);
+    // 0.5 ms apart is within the tolerance: no warning.
+    const near = branch('B', 31, 'reverse', xs.filter((x) => x < 31), (x) => 5.5e-3 + (31 - x) / 1500);
+    const quiet = new WarningLog();
+    expect(reciprocalChecks([a, near], 0.2e-3, quiet)[0].ok).toBe(true);
+    expect(quiet.items).toHaveLength(0);
+    // Two reverse sources: each pair uses that source's own branch (D at 45 m, 0.2 ms from reciprocity).
+    const d = branch('D', 45, 'reverse', xs.filter((x) => x < 45), (x) => 5.2e-3 + (45 - x) / 1500);
+    const both = reciprocalChecks([a, b, d], 0.2e-3, new WarningLog());
+    expect(both.map((c) => [c.sourceB, c.ok])).toEqual([['B', false], ['D', true]]);
+    expect(both[1].timeBA).toBeCloseTo(5.2e-3 + 45 / 1500, 12);
+    // A reverse source beyond the reach of A's branch is not paired.
+    const far = branch('C', 60, 'reverse', xs.filter((x) => x > 10), (x) => 5e-3 + (60 - x) / 1500);
+    expect(reciprocalChecks([a, far], 0.2e-3, new WarningLog())).toHaveLength(0);
   });
 });
