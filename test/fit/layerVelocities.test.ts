@@ -124,6 +124,46 @@ describe('layerVelocities on hand-built branch fits', () => {
     expect(layers[1].dipSeDeg! / dipSe).toBeCloseTo(1, 4);
   });
 
+  it('layerVelocities on flat ground with 1.5 ms late picks keeps the segment\'s own slowness and SE (offset is distance)', () => {
+    // Flat ground: the slope distance is the offset, so the segment line is the direct-wave fit.
+    const picks = [2, 4, 6, 8, 10].map((x) => ({ x, elev: 0, t: 1.5e-3 + x / 500 }));
+    const fit = fitOf('S1', 0, 'forward', picks, [{ layer: 1, slowness: 1 / 500, slownessSe: 3e-6, intercept: 1.5e-3, interceptSe: 1e-5 }]);
+    const [layer1] = layerVelocities([fit], 1, new WarningLog());
+    expect(layer1.throughOrigin).toBe(false);
+    expect(layer1.velocity).toBeCloseTo(500, 9);
+    // SE(V) = SE(s) V² = 3e-6 · 500² = 0.75 m/s (delta method).
+    expect(layer1.velocitySe).toBeCloseTo(0.75, 9);
+  });
+
+  it('layerVelocities solves a refractor dipping 5° under a layer seen from one side only, taking that layer as flat (Snell\'s law through a flat interface)', () => {
+    // 500 m/s over 1200 m/s (flat, seen only by the forward branch) over 3000 m/s dipping 5°. Through a
+    // flat interface the horizontal slowness is kept, so the head wave of the third layer has, by hand,
+    // sf = sin(θ + δ)/1200, sr = sin(θ − δ)/1200 with θ = asin(1200/3000) (Telford et al. 1990, §4.3,
+    // with V2 in place of V1).
+    const theta = Math.asin(0.4);
+    const sf = Math.sin(theta + 5 * deg) / 1200;
+    const sr = Math.sin(theta - 5 * deg) / 1200;
+    const forward = fitOf('S1', 0, 'forward', [1, 2, 3, 4, 5, 6, 7, 8, 9].map((d) => ({ x: d, elev: 0, t: d / 500 })),
+      [{ layer: 1, end: 3, slowness: 1 / 500, intercept: 0 }, { layer: 2, start: 3, end: 6, slowness: 1 / 1200, slownessSe: 4e-6, intercept: 0.01 }, { layer: 3, start: 6, slowness: sf, intercept: 0.02 }], 0);
+    // The reverse source is off the far end: it sees only the deepest refractor.
+    const reverse = fitOf('S2', 130, 'reverse', [30, 31, 32, 33].map((d) => ({ x: 130 - d, elev: 0, t: 0.05 + d * sr })),
+      [{ layer: 3, slowness: sr, intercept: 0.03 }], 0);
+    const log = new WarningLog();
+    const layers = layerVelocities([forward, reverse], 3, log);
+    expect(layers.map((l) => l.index)).toEqual([1, 2, 3]);
+    // Layers 1 and 2 are seen from one side only.
+    expect(layers[0].reversed).toBe(false);
+    expect(layers[1]).toMatchObject({ reversed: false, segmentCount: 1 });
+    expect(layers[1].velocity).toBeCloseTo(1200, 6);
+    expect(layers[1].velocitySe).toBeCloseTo(4e-6 * 1200 ** 2, 6);
+    expect(layers[1].forwardApparent!).toBeCloseTo(1200, 6);
+    expect(layers[1].reverseApparent).toBeUndefined();
+    expect(log.withCode('unreversed-layer').map((w) => w.layer)).toEqual([2]);
+    expect(layers[2].velocity).toBeCloseTo(3000, 6);
+    expect(layers[2].dipDeg!).toBeCloseTo(5, 8);
+    expect(layers[2].reversed).toBe(true);
+  });
+
   it('layerVelocities takes the inverse-variance weighted mean of the segments on one side', () => {
     // Two forward segments of a flat 2000 m/s refractor, slowness 1/1900 (SE 2e-6) and 1/2100
     // (SE 1e-6): weights 1/4 and 1, mean (0.25/1900 + 1/2100)/1.25 s/m; reverse 1/2000 exactly.
@@ -148,6 +188,9 @@ describe('layerVelocities on hand-built branch fits', () => {
     expect(layers.map((l) => l.index)).toEqual([2]);
     expect(layers[0].velocity).toBeCloseTo(2 / (1 / 1800 + 1 / 2200), 6); // 1980.0 m/s
     expect(layers[0].dipDeg).toBeUndefined();
+    expect(layers[0]).toMatchObject({ reversed: true, segmentCount: 2 });
+    expect(layers[0].forwardApparent!).toBeCloseTo(1800, 6);
+    expect(layers[0].reverseApparent!).toBeCloseTo(2200, 6);
     // SE of 2/(sf + sr) = 2 √(σf² + σr²)/(sf + sr)², delta method, by hand.
     expect(layers[0].velocitySe).toBeCloseTo((2 * Math.SQRT2 * 1e-6) / (1 / 1800 + 1 / 2200) ** 2, 6);
   });
@@ -181,6 +224,51 @@ describe('assignLayers on hand-built branch fits', () => {
     expect(close[2].segments[0].layer).toBe(2);
   });
 
+  it('assignLayers matches the segments of a two-segment off-end branch in order: 1/1950 to layer 2, 1/4000 to a new layer 3', () => {
+    const fits = [near('S1', 0, 'forward'), near('S2', 50, 'reverse'), offEnd('S3', -20, 'forward', 1 / 1950)];
+    fits[2].segments.push({ ...fits[2].segments[0], order: 2, layer: 2, slowness: 1 / 4000, apparentVelocity: 4000 });
+    expect(assignLayers(fits, 1, new WarningLog())).toBe(3);
+    expect(fits[2].segments.map((x) => x.layer)).toEqual([2, 3]);
+  });
+
+  it('assignLayers matches an off-end segment against its own side: down-dip 1/1600 is layer 2 on forward branches, although both sides together put it nearer layer 3', () => {
+    // Forward (down-dip) apparent velocities 500, 1200, 3000 m/s; reverse (up-dip) 500, 600, 1300 m/s.
+    // Forward side: |ln(1600/1200)| = 0.29 < |ln(3000/1600)| = 0.63, layer 2. Both sides (median
+    // slownesses 1/800 and 1/1814): |ln(1600/800)| = 0.69 > |ln(1814/1600)| = 0.13, layer 3. By hand.
+    const three = (id: string, x0: number, side: Side, v: number[]) =>
+      fitOf(id, x0, side, [1, 2, 3, 4, 5, 6, 7, 8, 9].map((d) => ({ x: x0 + (side === 'forward' ? d : -d), elev: 0, t: 0 })),
+        v.map((velocity, i) => ({ slowness: 1 / velocity, slownessSe: 1e-6, intercept: i === 0 ? 0 : 0.01 * i, interceptSe: 1e-4, start: 3 * i, end: 3 * i + 3 })));
+    const fits = [three('S1', 0, 'forward', [500, 1200, 3000]), three('S2', 50, 'reverse', [500, 600, 1300]), offEnd('S3', -20, 'forward', 1 / 1600)];
+    expect(assignLayers(fits, 1, new WarningLog())).toBe(3);
+    expect(fits[2].segments[0].layer).toBe(2);
+  });
+
+  it('assignLayers with no branch starting at its source keeps each branch\'s own segment order as its layers', () => {
+    const fits = [offEnd('S1', -20, 'forward', 1 / 2000), offEnd('S2', 70, 'reverse', 1 / 2000)];
+    fits[0].segments.push({ ...fits[0].segments[0], order: 2, layer: 2, slowness: 1 / 4000 });
+    expect(assignLayers(fits, 1, new WarningLog())).toBe(2);
+    expect(fits.map((f) => f.segments.map((x) => x.layer))).toEqual([[1, 2], [1]]);
+  });
+
+  it('assignLayers with every near-source branch starting on a head wave shifts every segment one layer down and says why', () => {
+    // Intercepts 6.6 ms, over 3 ms (a direct wave passes through the origin, common practice).
+    const head = (id: string, x0: number, side: Side) =>
+      fitOf(id, x0, side, [1, 2, 3, 4].map((d) => ({ x: x0 + (side === 'forward' ? d : -d), elev: 0, t: 0 })), [{ slowness: 1 / 2000, intercept: 6.6e-3, interceptSe: 1e-4 }]);
+    const fits = [head('S1', 0, 'forward'), head('S2', 50, 'reverse')];
+    const log = new WarningLog();
+    expect(assignLayers(fits, 1, log)).toBe(2);
+    expect(fits.map((f) => f.segments[0].layer)).toEqual([2, 2]);
+    const [warning] = log.withCode('no-direct-wave');
+    expect(warning.layer).toBe(1);
+    expect(warning.message).toMatch(/intercepts 6\.6, 6\.6 ms/);
+    // One near-source branch with a direct wave: only the other is shifted, with its own warning.
+    const mixed = [near('S1', 0, 'forward'), head('S2', 50, 'reverse')];
+    const mixedLog = new WarningLog();
+    expect(assignLayers(mixed, 1, mixedLog)).toBe(2);
+    expect(mixed.map((f) => f.segments.map((x) => x.layer))).toEqual([[1, 2], [2]]);
+    expect(mixedLog.withCode('direct-wave-unsampled')[0].message).toMatch(/^S2:reverse branch starts with a segment of intercept 6\.6 ms/);
+  });
+
   it('assignLayers warns when a segment departs from its layer\'s median on its side by more than the ratio 1.4, naming branch, segment and velocities', () => {
     // Three forward branches on layer 2 at 2000, 2000 and 3000 m/s: the third is 1.5 times the median.
     const odd = near('S3', 10, 'forward');
@@ -192,6 +280,18 @@ describe('assignLayers on hand-built branch fits', () => {
     const warned = log.withCode('layer-consistency');
     expect(warned).toHaveLength(1);
     expect(warned[0].message).toMatch(/^S3:forward segment 2 \(apparent velocity 3000 m\/s\) is assigned to layer 2, whose median apparent velocity on forward branches is 2000 m\/s/);
+    expect(warned[0].layer).toBe(2);
+    // Slower by the same ratio (1300 m/s, 1.54 times the median slowness): warned too.
+    odd.segments[1].slowness = 1 / 1300;
+    odd.segments[1].apparentVelocity = 1300;
+    const slow = new WarningLog();
+    assignLayers([near('S1', 0, 'forward'), near('S2', 5, 'forward'), odd, near('S4', 50, 'reverse')], 1, slow);
+    expect(slow.withCode('layer-consistency')).toHaveLength(1);
+    // The same departure within three of its standard errors (a short, uncertain segment): not warned.
+    odd.segments[1].slownessSe = 1e-4;
+    const uncertain = new WarningLog();
+    assignLayers([near('S1', 0, 'forward'), near('S2', 5, 'forward'), odd, near('S4', 50, 'reverse')], 1, uncertain);
+    expect(uncertain.withCode('layer-consistency')).toHaveLength(0);
     // 1.3 times the median is within the ratio: no warning.
     odd.segments[1].slowness = 1 / 2600;
     const quiet = new WarningLog();
