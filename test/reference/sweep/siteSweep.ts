@@ -2,9 +2,11 @@
  * Sweep of estimated site classes over random water-table lines (test/reference/realisticLines.ts:
  * dry soil over saturated soil over rock, the independent forward model with seeded pick noise),
  * Vs estimated from Vp with one Poisson's ratio for every layer. Not a test; run with
- *   nice npx tsx test/reference/sweep/siteSweep.ts [lines=25] [firstSeed=1] [poisson=0.3] [--cli] [--verbose]
+ *   nice npx tsx test/reference/sweep/siteSweep.ts [lines=25] [firstSeed=1] [poisson=0.3] [--cli] [--dry] [--verbose]
  * --cli runs each line's first-break table through the command line (interpret --json) instead
- * of calling interpret directly. Counts, among the lines that got a class:
+ * of calling interpret directly; --dry draws two-layer lines (dry soil over rock, no water table)
+ * instead, to count how often the hidden-saturated caution fires where there is none. Counts,
+ * among the lines that got a class:
  *   rock by estimate: the estimated v̄s lies in a rock class (ASCE 7-16/7-22 A or B, EN 1998-1 A);
  *   rock reported: a rock class is what the user is shown (the class field itself is A or B);
  *   lost water table: the fit has no layer in the saturated band although the line has one.
@@ -18,6 +20,7 @@ import { realisticCsv, realisticLine } from '../realisticLines.js';
 const args = process.argv.slice(2).filter((a) => !a.startsWith('--'));
 const verbose = process.argv.includes('--verbose');
 const cli = process.argv.includes('--cli');
+const kind = process.argv.includes('--dry') ? 'two' : 'water-table';
 const lines = Number(args[0] ?? 25);
 const first = Number(args[1] ?? 1);
 const poisson = Number(args[2] ?? 0.3);
@@ -33,7 +36,7 @@ let lost = 0;
 let hiddenCaution = 0;
 let lostWithCaution = 0;
 for (let seed = first; seed < first + lines; seed++) {
-  const line = realisticLine(seed, { layers: 'water-table' });
+  const line = realisticLine(seed, { layers: kind });
   const csv = realisticCsv(line, seed);
   let velocities: number[];
   let classes: Found[] | undefined;
@@ -71,7 +74,7 @@ for (let seed = first; seed < first + lines; seed++) {
   if (verbose) process.stdout.write(`${seed}\t${line.name}\tgot ${velocities.map(Math.round).join('/')}\t${tag}${caution ? '\t[hidden-saturated caution]' : ''}\n`);
 }
 process.stdout.write([
-  `water-table lines ${lines} (seeds ${first}-${first + lines - 1}, Poisson's ratio ${poisson}, ${cli ? 'command line' : 'interpret'})`,
+  `${kind} lines ${lines} (seeds ${first}-${first + lines - 1}, Poisson's ratio ${poisson}, ${cli ? 'command line' : 'interpret'})`,
   `saturated layer lost by the fit ${lost}`,
   `classed ${classed}, refused ${refused}, no site result ${none}`,
   `rock class by estimate ${rockByEstimate} of ${classed}`,
