@@ -414,10 +414,15 @@ function normalEquations(rows: SparseRow[], residuals: Float64Array, rtr: Float6
       keptIndex[kept] = index[a];
       keptValue[kept++] = value[a];
     }
+    // The upper triangle only (the indices of a row are distinct, so each cell gets one product
+    // per row, in row order, as the full square would); mirrored below at the end.
     for (let a = 0; a < kept; a++) {
-      const base = keptIndex[a] * n;
+      const ia = keptIndex[a];
       const va = keptValue[a];
-      for (let b = 0; b < kept; b++) normal[base + keptIndex[b]] += va * keptValue[b];
+      for (let b = a; b < kept; b++) {
+        const ib = keptIndex[b];
+        normal[ia < ib ? ia * n + ib : ib * n + ia] += va * keptValue[b];
+      }
     }
     if (shiftIndex >= 0) {
       // ∂t/∂shift = 1 for every pick.
@@ -429,6 +434,7 @@ function normalEquations(rows: SparseRow[], residuals: Float64Array, rtr: Float6
       }
     }
   });
+  for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) normal[j * n + i] = normal[i * n + j];
   for (let i = 0; i < n; i++) {
     let row = 0;
     for (let j = 0; j < n; j++) row += rtr[i * n + j] * p[j];
