@@ -188,12 +188,36 @@ export function sectionPaths(sampled: SampledNodeSection, shots: Shot[], derivat
     touchedList.length = 0;
   };
 
+  // The leg from each receiver up to the samples of the top refractor within reach of it depends
+  // on the receiver alone, not on the shot: tabulated once per receiver position.
+  const legWidth = 2 * topReach + 1;
+  const receiverIds = new Map<number, Map<number, number>>();
+  const receiverLegs: Float64Array[] = [];
+  const shotReceiverIds = refractors > 0 ? shots.map((shot) => Int32Array.from(shot.receivers, ({ x: rx, z: rz }) => {
+    let byZ = receiverIds.get(rx);
+    if (byZ === undefined) { byZ = new Map(); receiverIds.set(rx, byZ); }
+    let id = byZ.get(rz);
+    if (id === undefined) {
+      id = receiverLegs.length;
+      byZ.set(rz, id);
+      const legs = new Float64Array(legWidth);
+      const centre = Math.round((rx - xs[0]) / step);
+      for (let i = Math.max(0, centre - topReach); i < Math.min(count, centre + topReach + 1); i++) {
+        const dx = xs[i] - rx;
+        const dz = levels[0][i] - rz;
+        legs[i - centre + topReach] = Math.sqrt(dx * dx + dz * dz) * slownessAt(0, (xs[i] + rx) / 2);
+      }
+      receiverLegs.push(legs);
+    }
+    return id;
+  })) : [];
   const allTimes: Float64Array[] = [];
   const head: Float64Array[] = new Array(refractors);
   const previous: Int32Array[] = levels.map(() => new Int32Array(count));
   const downFrom: Int32Array[] = levels.map(() => new Int32Array(count));
   const upFrom: Int32Array[][] = levels.map(() => levels.map(() => new Int32Array(count)));
-  for (const shot of shots) {
+  for (let shotIndex = 0; shotIndex < shots.length; shotIndex++) {
+    const shot = shots[shotIndex];
     const n = shot.receivers.length;
     const times = new Float64Array(n);
     const bestRefractor = new Int32Array(n).fill(-1);
@@ -215,14 +239,13 @@ export function sectionPaths(sampled: SampledNodeSection, shots: Shot[], derivat
         head[k] = relax(arriving, along[k], previous[k]);
         let rising = head[k];
         for (let j = k; j >= 1; j--) rising = crossUp(rising, legTables[j], reach[j], count, upFrom[k][j]);
+        const ids = shotReceiverIds[shotIndex];
         for (let r = 0; r < n; r++) {
-          const rx = shot.receivers[r].x;
-          const rz = shot.receivers[r].z;
-          const centre = Math.round((rx - xs[0]) / step);
+          const centre = Math.round((shot.receivers[r].x - xs[0]) / step);
+          const legs = receiverLegs[ids[r]];
+          const offset = topReach - centre;
           for (let i = Math.max(0, centre - topReach); i < Math.min(count, centre + topReach + 1); i++) {
-            const dx = xs[i] - rx;
-            const dz = levels[0][i] - rz;
-            const t = rising[i] + Math.sqrt(dx * dx + dz * dz) * slownessAt(0, (xs[i] + rx) / 2);
+            const t = rising[i] + legs[i + offset];
             if (t < times[r]) { times[r] = t; bestRefractor[r] = k; bestSample[r] = i; }
           }
         }
