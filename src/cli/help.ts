@@ -100,7 +100,9 @@ to interpret are the shots of one line: they are picked, then interpreted togeth
 
 const REPORT = `report: the report of one line for a permit packet, as one self-contained HTML file (figures
 inline, nothing loaded from anywhere) that prints to PDF on A4 or Letter; every option of
-interpret applies (--wave S, --poisson, --p-line, --stations, --segments ...).
+interpret applies (--wave S, --poisson, --p-line, --stations, --segments ...); with --units ft
+every length and velocity of the report is in ft and ft/s (the metric value in brackets in its
+sentences), while the JSON, CSV and GeoJSON keep metres as their field names say.
   -o, --output FILE.html   the report (whole or not at all; never over an input file)
   --pdf FILE.pdf           also print it to PDF with Chromium (/usr/bin/chromium, Debian package
                            chromium; HAMMERLINE_CHROMIUM overrides the path)

@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { InputError } from '../core/errors.js';
 import type { FirstBreakTable } from '../core/types.js';
-import { toMetres } from '../core/units.js';
+import { formatLength, toMetres } from '../core/units.js';
 import { depthProfileCsv } from '../io/depthProfileCsv.js';
 import { greatCircleDistance, lineGeoJson } from '../io/geojson.js';
 import { interpretationJson } from '../io/interpretationJson.js';
@@ -92,18 +92,19 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
   if (!table.hasElevations && values.stations === undefined) missing.push('ground elevations (none were supplied; flat ground was assumed)');
   else if (job.elevationDatum === undefined) missing.push('Elevation datum (of the ground elevations supplied)');
   const notices: string[] = [];
-  // The report is drawn in SI throughout (its figures, tables and the JSON it matches); a line read
-  // in feet is said so at the top rather than silently converted.
-  if (choices.unit === 'ft') notices.push('The input lengths were given in feet and were converted to metres (1 ft = 0.3048 m exactly); this report gives every length in metres and every velocity in m/s. Multiply metres by 3.2808 for feet.');
+  const unit = choices.unit;
+  // Computed in SI; with --units ft the report shows feet and ft/s (the SI value in brackets in
+  // the text), and says so at the top, since its exports keep SI.
+  if (unit === 'ft') notices.push('Lengths are given in feet and velocities in feet per second (1 ft = 0.3048 m exactly), the metric values following in brackets in the text; the JSON, depth-profile CSV and GeoJSON files that accompany this report give metres and m/s, as their field names say.');
   if (job.geophoneSpacing !== undefined && Math.abs(job.geophoneSpacing - spacing) > 0.02 * spacing) {
-    notices.push(`The nominal geophone spacing given (${job.geophoneSpacing.toFixed(2)} m) differs from the median spacing of the data (${spacing.toFixed(2)} m); the data are used.`);
+    notices.push(`The nominal geophone spacing given (${formatLength(job.geophoneSpacing, unit, 2)}) differs from the median spacing of the data (${formatLength(spacing, unit, 2)}); the data are used.`);
   }
   if ((job.lineStart === undefined) !== (job.lineEnd === undefined)) throw new InputError({}, 'give the coordinates of both line ends (--line-start and --line-end, or line_start and line_end in the job file), or neither');
   const span = receivers[receivers.length - 1].x - receivers[0].x;
   if (job.lineStart && job.lineEnd) {
     const distance = greatCircleDistance(job.lineStart, job.lineEnd);
     if (Math.abs(distance - span) > Math.max(2, 0.05 * span)) {
-      notices.push(`The coordinates given for the line ends are ${distance.toFixed(1)} m apart, but the geophones span ${span.toFixed(1)} m: check the coordinates (longitude first, then latitude, in decimal degrees WGS 84) before using the GeoJSON.`);
+      notices.push(`The coordinates given for the line ends are ${formatLength(distance, unit, 1)} apart, but the geophones span ${formatLength(span, unit, 1)}: check the coordinates (longitude first, then latitude, in decimal degrees WGS 84) before using the GeoJSON.`);
     }
   }
   if (values.geojson !== undefined && (job.lineStart === undefined || job.lineEnd === undefined)) {
@@ -145,15 +146,15 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
   });
   const html = reportHtml({
     result, document, receivers, hasElevations: layout.elevations_given, job, missing, notices, inputs: files,
-    command: ['report', ...args], version: context.version ?? VERSION, issued, paper,
+    command: ['report', ...args], version: context.version ?? VERSION, issued, paper, unit,
   });
 
   const title = [job.line ? `line ${job.line}` : result.file, job.site].filter(Boolean).join(', ');
   // The PDF first: it is the step that can fail, and then nothing else has been written.
   if (values.pdf !== undefined) renderPdf(html, values.pdf as string);
   if (values.output !== undefined) io.writeText(values.output as string, html);
-  if (values['depths-csv'] !== undefined) io.writeText(values['depths-csv'] as string, depthProfileCsv(result, receivers, title));
-  if (values.geojson !== undefined) io.writeText(values.geojson as string, JSON.stringify(lineGeoJson(result, receivers, job as JobDetails & Required<Pick<JobDetails, 'lineStart' | 'lineEnd'>>), null, 2) + '\n');
+  if (values['depths-csv'] !== undefined) io.writeText(values['depths-csv'] as string, depthProfileCsv(result, receivers, title, unit));
+  if (values.geojson !== undefined) io.writeText(values.geojson as string, JSON.stringify(lineGeoJson(result, receivers, job as JobDetails & Required<Pick<JobDetails, 'lineStart' | 'lineEnd'>>, unit), null, 2) + '\n');
   if (values.json !== undefined) io.writeText(values.json as string, JSON.stringify(document, null, 2) + '\n');
 
   if (missing.length > 0) io.stderr(`hammerline: the report lists as not supplied: ${missing.join('; ')}\n`);

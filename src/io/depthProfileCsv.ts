@@ -1,5 +1,7 @@
 import type { InterpretationResult } from '../interpret.js';
 import { csvComment, csvNumber, csvText } from './csvCell.js';
+import { formatVelocity, type LengthUnit } from '../core/units.js';
+import { displayText } from '../report/unitText.js';
 
 /** The depth methods written beside the recommended depth, in column order, with their column names. */
 const METHOD_COLUMNS: [string, string][] = [['plus-minus', 'plus_minus'], ['GRM', 'grm'], ['delay-time', 'delay_time']];
@@ -13,15 +15,19 @@ const METHOD_COLUMNS: [string, string][] = [['plus-minus', 'plus_minus'], ['GRM'
  * so the numbers never travel without them. Every text cell is neutralised against formula
  * injection (OWASP; see csvCell), comment lines too, piece by piece between commas.
  *
+ * With `unit` 'ft' the comment lines (read by people) give feet and ft/s with the SI value in
+ * brackets; the columns stay SI, as their names say.
+ *
  * @param receivers - every geophone position and its ground elevation, in metres, sorted along the line
  */
-export function depthProfileCsv(result: InterpretationResult, receivers: { x: number; elev: number }[], title: string): string {
+export function depthProfileCsv(result: InterpretationResult, receivers: { x: number; elev: number }[], title: string, unit: LengthUnit = 'm'): string {
   const comment = csvComment;
   const lines: string[] = [];
-  lines.push(comment(`hammerline depth profile: ${title}; ${result.wave}-wave line; lengths in metres below ground or above datum, velocities in m/s`));
-  lines.push(comment(`layers (velocity ± standard error, m/s): ${result.layers.map((l) => `${l.index}: ${Math.round(l.velocity)} ± ${Math.round(l.velocitySe)}`).join('; ')}`));
-  for (const c of result.cautions) lines.push(comment(`caution: ${c.message}`));
-  for (const w of result.warnings) lines.push(comment(`warning [${w.code}]: ${w.message}`));
+  lines.push(comment(`hammerline depth profile: ${title}; ${result.wave}-wave line; lengths in metres below ground or above datum, velocities in m/s${unit === 'ft' ? ' (the columns; 1 ft = 0.3048 m exactly)' : ''}`));
+  if (unit === 'ft') lines.push(comment(`layers (velocity ± standard error): ${result.layers.map((l) => `${l.index}: ${formatVelocity(Math.round(l.velocity), unit)} ± ${formatVelocity(Math.round(l.velocitySe), unit)}`).join('; ')}`));
+  else lines.push(comment(`layers (velocity ± standard error, m/s): ${result.layers.map((l) => `${l.index}: ${Math.round(l.velocity)} ± ${Math.round(l.velocitySe)}`).join('; ')}`));
+  for (const c of result.cautions) lines.push(comment(`caution: ${(unit === 'm' ? c.message : displayText(c, unit))}`));
+  for (const w of result.warnings) lines.push(comment(`warning [${w.code}]: ${(unit === 'm' ? w.message : displayText(w, unit))}`));
   const header = ['station', 'x_m', 'ground_elev_m'];
   for (const r of result.refractors) {
     header.push(`depth_${r.index}_m`, `depth_${r.index}_se_m`, `elev_${r.index}_m`, `method_${r.index}`);

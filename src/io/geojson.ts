@@ -1,6 +1,8 @@
 import type { InterpretationResult } from '../interpret.js';
 import type { JobDetails, LonLat } from './jobDetails.js';
 import { round } from './numbers.js';
+import type { LengthUnit } from '../core/units.js';
+import { displayText } from '../report/unitText.js';
 
 /** Mean radius of the Earth, in metres (IUGG mean radius R1 of WGS 84). */
 const EARTH_RADIUS = 6371008.8;
@@ -43,9 +45,12 @@ export const LINE_GEOJSON_SCHEMA = 'hammerline/line-geojson@1';
  * coordinate: RFC 7946 would read a third coordinate as height above the WGS 84 ellipsoid, and
  * the survey's elevations are on its own datum.
  *
+ * The numeric properties are SI, their unit in their names; with `unit` 'ft' the sentences
+ * (cautions, warnings) give feet and ft/s with the SI value in brackets.
+ *
  * @param receivers - every geophone position and its ground elevation, in metres, sorted along the line
  */
-export function lineGeoJson(result: InterpretationResult, receivers: { x: number; elev: number }[], job: JobDetails & { lineStart: LonLat; lineEnd: LonLat }): Record<string, unknown> {
+export function lineGeoJson(result: InterpretationResult, receivers: { x: number; elev: number }[], job: JobDetails & { lineStart: LonLat; lineEnd: LonLat }, unit: LengthUnit = 'm'): Record<string, unknown> {
   const x0 = receivers[0].x;
   const x1 = receivers[receivers.length - 1].x;
   const at = (x: number) => positionAlong(job.lineStart, job.lineEnd, x0, x1, x);
@@ -88,8 +93,8 @@ export function lineGeoJson(result: InterpretationResult, receivers: { x: number
       layer_velocities_mps: result.layers.map((l) => round(l.velocity, 1)),
       layer_velocity_ses_mps: result.layers.map((l) => round(l.velocitySe, 1)),
       ...(result.site ? { vs30_mps: round(result.site.vs30, 1), vs30_low_mps: round(result.site.vs30Low, 1), vs30_high_mps: round(result.site.vs30High, 1), vs30_estimated: result.site.estimated } : {}),
-      cautions: result.cautions.map((c) => c.message),
-      warnings: result.warnings.map((w) => w.message),
+      cautions: result.cautions.map((c) => (unit === 'm' ? c.message : displayText(c, unit))),
+      warnings: result.warnings.map((w) => (unit === 'm' ? w.message : displayText(w, unit))),
     },
   };
   return { type: 'FeatureCollection', features: [line, ...stations] };

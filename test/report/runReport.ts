@@ -30,7 +30,7 @@ export function runReport(args: string[], files: Record<string, string> = {}) {
 
 /** Every number the report marks with its source: path in the JSON document, value, decimals shown, text shown. */
 export function markedNumbers(html: string) {
-  const out: { path?: string; agg?: string; thickness?: number; value: number | null; digits?: number; text: string }[] = [];
+  const out: { path?: string; agg?: string; thickness?: number; value: number | null; digits?: number; unit?: string; text: string }[] = [];
   const pattern = /<(?:span|tspan) class="num" ([^>]*)>([^<]*)<\/(?:span|tspan)>/g;
   for (const match of html.matchAll(pattern)) {
     const attrs = Object.fromEntries([...match[1].matchAll(/data-([\w-]+)="([^"]*)"/g)].map((a) => [a[1], a[2]]));
@@ -40,6 +40,7 @@ export function markedNumbers(html: string) {
       thickness: attrs.thickness === undefined ? undefined : Number(attrs.thickness),
       value: attrs.value === 'null' ? null : Number(attrs.value),
       digits: attrs.digits === undefined ? undefined : Number(attrs.digits),
+      unit: attrs.unit,
       text: match[2],
     });
   }
@@ -91,8 +92,11 @@ export function compareWithDocument(html: string, document: Record<string, unkno
       continue;
     }
     expect(n.value, n.path ?? `thickness ${n.thickness}`).toBeCloseTo(expected as number, 9);
-    // The text shown is the value at the decimals shown (half a unit in the last place).
-    expect(Math.abs(Number(n.text) - (expected as number)), `${n.path} shown as ${n.text}`).toBeLessThanOrEqual(0.5 * 10 ** -(n.digits ?? 0) + 1e-9);
+    // The text shown is the value at the decimals shown (half a unit in the last place); a value
+    // marked as shown in feet is the SI value over 0.3048 (1 ft = 0.3048 m exactly, international
+    // yard and pound agreement, 1959), for lengths and velocities alike.
+    const shownExpected = n.unit === 'ft' ? (expected as number) / 0.3048 : (expected as number);
+    expect(Math.abs(Number(n.text) - shownExpected), `${n.path} shown as ${n.text}`).toBeLessThanOrEqual(0.5 * 10 ** -(n.digits ?? 0) + 1e-9);
     compared++;
   }
   return compared;

@@ -16,23 +16,23 @@ export const REPORT_SECTIONS = ['summary', 'method', 'time-distance', 'depth-sec
  * interpretation document in `input.document` and carries its path there (see Figures).
  */
 export function reportHtml(input: ReportInput): string {
-  const fig = new Figures(input.document);
+  const fig = new Figures(input.document, input.unit ?? 'm');
   const job = input.job;
   const name = [job.line ? `Line ${job.line}` : undefined, job.site, job.project].filter(Boolean).join(', ') || input.result.file;
   const footer = `Seismic refraction survey: ${name}. Issued ${input.issued}.`;
   const body = [
-    jobSection(input),
+    jobSection(input, fig),
     summarySection(input, fig),
     methodSection(input, fig),
-    timeDistanceSection(input),
+    timeDistanceSection(input, fig),
     depthSectionSection(input, fig),
     layerSection(input, fig),
     depthTableSection(input, fig),
     siteSection(input, fig),
     qualitySection(input, fig),
-    warningSection(fig),
+    warningSection(input, fig),
     cautionSection(input, fig),
-    historySection(input),
+    historySection(input, fig),
     signatureSection(),
   ].join('\n');
   return `<!DOCTYPE html>

@@ -1,5 +1,6 @@
 import type { InterpretationResult } from '../../interpret.js';
 import type { JobDetails } from '../../io/jobDetails.js';
+import type { LengthUnit } from '../../core/units.js';
 
 /** One input file of the report, for the processing history. */
 export interface ReportInputFile {
@@ -35,4 +36,9 @@ export interface ReportInput {
   issued: string;
   /** Paper the print layout is set for. */
   paper: 'A4' | 'Letter';
+  /**
+   * Unit lengths and velocities are shown in (figures, tables, axes, text); with 'ft' the text
+   * gives the SI value in brackets. The document stays SI. Default metres.
+   */
+  unit?: LengthUnit;
 }

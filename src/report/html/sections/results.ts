@@ -1,4 +1,5 @@
 import { hiddenLayerText } from '../../../core/cautions.js';
+import { displayText } from '../../unitText.js';
 import { escapeHtml } from '../escape.js';
 import type { Figures } from '../figures.js';
 import { findStep, parameter } from '../references.js';
@@ -10,9 +11,9 @@ import type { ReportInput } from '../types.js';
 const DEPTH_METHODS = ['plus-minus', 'GRM', 'delay-time'];
 
 /** Section 3: the time-distance plot with the fitted segments. */
-export function timeDistanceSection(input: ReportInput): string {
-  const { svg, series } = timeDistanceSvg(input.result.fits);
-  const legend = series.map((s) => `<span class="key"><svg viewBox="0 0 14 8" class="swatch"><line x1="0" y1="4" x2="14" y2="4" stroke="${s.colour}" stroke-width="1.6"/><circle cx="7" cy="4" r="2" fill="${s.colour}"/></svg>${escapeHtml(s.sourceId)} (x = ${s.sourceX.toFixed(2)} m)</span>`).join('');
+export function timeDistanceSection(input: ReportInput, fig: Figures): string {
+  const { svg, series } = timeDistanceSvg(input.result.fits, fig.unit);
+  const legend = series.map((s) => `<span class="key"><svg viewBox="0 0 14 8" class="swatch"><line x1="0" y1="4" x2="14" y2="4" stroke="${s.colour}" stroke-width="1.6"/><circle cx="7" cy="4" r="2" fill="${s.colour}"/></svg>${escapeHtml(s.sourceId)} (x = ${fig.plain('length', s.sourceX, 2)})</span>`).join('');
   return `<section id="time-distance"><h2><span class="no">3</span> Time-distance plot</h2>
 <figure>${svg}<figcaption><span class="legend">${legend}<span class="key"><svg viewBox="0 0 14 8" class="swatch"><path d="M4 1L10 7M4 7L10 1" stroke="#333" stroke-width="1.2"/></svg>pick left out of the fit</span><span class="key"><svg viewBox="0 0 14 8" class="swatch"><path d="M7 1l-4 7h8z" fill="#333"/></svg>source position</span></span>
 Figure 1. First-break times against position along the line, one colour per source; the lines are the fitted segments of each branch (time = intercept time + offset / apparent velocity), drawn over the offsets of the picks they fit.</figcaption></figure></section>`;
@@ -22,8 +23,8 @@ Figure 1. First-break times against position along the line, one colour per sour
 export function depthSectionSection(input: ReportInput, fig: Figures): string {
   const result = input.result;
   const sources = [...new Map(result.fits.map((f) => [f.branch.sourceId, { id: f.branch.sourceId, x: f.branch.sourceX, elev: f.branch.sourceElev }])).values()].sort((a, b) => a.x - b.x);
-  const layerLabels = result.layers.slice(0, result.refractors.length + 1).map((l, i) => `<tspan>${result.wave === 'S' ? 'Vs' : 'Vp'} ${fig.pm(`layers.${i}.velocity_mps`, `layers.${i}.velocity_se_mps`, 0).replace(/<span /g, '<tspan ').replace(/<\/span>/g, '</tspan>')} m/s</tspan>`);
-  const { svg, exaggeration } = depthSectionSvg({ receivers: input.receivers, sources, refractors: result.refractors, layerLabels });
+  const layerLabels = result.layers.slice(0, result.refractors.length + 1).map((l, i) => `<tspan>${result.wave === 'S' ? 'Vs' : 'Vp'} ${fig.pm(`layers.${i}.velocity_mps`, `layers.${i}.velocity_se_mps`, 0).replace(/<span /g, '<tspan ').replace(/<\/span>/g, '</tspan>')} ${fig.velocityLabel}</tspan>`);
+  const { svg, exaggeration } = depthSectionSvg({ receivers: input.receivers, sources, refractors: result.refractors, layerLabels, unit: fig.unit });
   const keys = result.refractors.map((r, k) => `<span class="key"><svg viewBox="0 0 20 8" class="swatch"><rect x="0" y="1" width="20" height="6" fill="${REFRACTOR_COLOURS[k % REFRACTOR_COLOURS.length]}" fill-opacity="0.2"/><line x1="0" y1="4" x2="20" y2="4" stroke="${REFRACTOR_COLOURS[k % REFRACTOR_COLOURS.length]}" stroke-width="2"/></svg>refractor ${r.index}, recommended (${escapeHtml(r.method)}) ± 1 standard error</span>`).join('') + (result.refractors.some((r) => r.pointMethods.includes('interpolated')) ? '<span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#777" stroke-width="2.2"/><line x1="0" y1="4" x2="20" y2="4" stroke="#fff" stroke-width="1" stroke-dasharray="3 3"/></svg>interpolated across a gap in coverage</span>' : '');
   const methodKeys = DEPTH_METHODS.map((m) => `<span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#444" stroke-width="1" stroke-dasharray="${METHOD_DASH[m]}"/></svg>${escapeHtml(m)}</span>`).join('');
   const tomogram = fig.get('tomogram') === undefined ? '' : tomogramFigure(input, fig);
@@ -43,7 +44,7 @@ export function layerSection(input: ReportInput, fig: Figures): string {
     return `<tr><td>${l.index}</td><td class="n">${fig.pm(`layers.${i}.velocity_mps`, `layers.${i}.velocity_se_mps`, 0)}</td><td class="n">${l.index === 1 ? 'surface' : fig.get(`layers.${i}.dip_deg`) === null ? 'unknown' : fig.pm(`layers.${i}.dip_deg`, `layers.${i}.dip_se_deg`, 1)}</td><td>${l.reversed ? 'forward and reverse' : 'one side only (apparent velocity)'}</td><td class="n">${thickness}</td></tr>`;
   }).join('');
   return `<section id="layers"><h2><span class="no">5</span> Layers</h2>
-<table class="data"><thead><tr><th>Layer</th><th>${result.wave === 'S' ? 'Vs' : 'Vp'} ± standard error (m/s)</th><th>Dip of its top (degrees)</th><th>Velocity seen by</th><th>Thickness along the line (m)</th></tr></thead><tbody>${rows}</tbody></table>
+<table class="data"><thead><tr><th>Layer</th><th>${result.wave === 'S' ? 'Vs' : 'Vp'} ± standard error (${fig.velocityLabel})</th><th>Dip of its top (degrees)</th><th>Velocity seen by</th><th>Thickness along the line (${fig.lengthLabel})</th></tr></thead><tbody>${rows}</tbody></table>
 <p class="note">Dip is positive where the top of the layer deepens towards increasing x. Thickness is the range along the line of the difference between the recommended depths of the refractors above and below the layer.</p></section>`;
 }
 
@@ -66,17 +67,18 @@ export function depthTableSection(input: ReportInput, fig: Figures): string {
       return `<tr><td class="n">${fig.num(`layout.receivers.${n}.station`, 0)}</td><td class="n">${fig.num(`layout.receivers.${n}.x_m`, 2)}</td><td class="n">${fig.num(`layout.receivers.${n}.elev_m`, 2)}</td>${rec}${others}</tr>`;
     }).join('');
     const intercept = r.byMethod['intercept-time'] ?? [];
-    const interceptText = intercept.length === 0 ? '' : `<p class="note">Intercept-time depths under the sources: ${intercept.map((p, i) => `${escapeHtml(p.sourceId ?? '')} at x = ${fig.num(`${path}.by_method.intercept-time.${i}.x_m`, 2)} m: ${fig.pm(`${path}.by_method.intercept-time.${i}.depth_m`, `${path}.by_method.intercept-time.${i}.depth_se_m`, 2)} m`).join('; ')}.</p>`;
+    const interceptText = intercept.length === 0 ? '' : `<p class="note">Intercept-time depths under the sources: ${intercept.map((p, i) => `${escapeHtml(p.sourceId ?? '')} at x = ${fig.withUnit('length', () => fig.num(`${path}.by_method.intercept-time.${i}.x_m`, 2))}: ${fig.withUnit('length', () => fig.pm(`${path}.by_method.intercept-time.${i}.depth_m`, `${path}.by_method.intercept-time.${i}.depth_se_m`, 2))}`).join('; ')}.</p>`;
     const qualifying = result.warnings.filter((w) => w.layer === r.index + 1);
-    const limit = r.hiddenLayer ? [`Hidden-layer limit: ${hiddenLayerText(r).text}`] : [];
-    const lines = [...limit, ...qualifying.map((w) => w.message)];
+    const limit = r.hiddenLayer ? [`Hidden-layer limit: ${fig.unit === 'm' ? hiddenLayerText(r).text : displayText(hiddenLayerText(r), fig.unit)}`] : [];
+    const lines = [...limit, ...qualifying.map((w) => (fig.unit === 'm' ? w.message : displayText(w, fig.unit)))];
     const cautions = lines.length === 0 ? '' : `<ul class="qualifiers">${lines.map((line) => `<li>${escapeHtml(line)}</li>`).join('')}</ul>`;
-    return `<h3>Refractor ${r.index}: top of layer ${r.index + 1} (${fig.num(`layers.${r.index}.velocity_mps`, 0)} m/s); recommended: ${escapeHtml(r.method)}</h3>
-<table class="data depths"><thead><tr><th>Station</th><th>x (m)</th><th>Ground elevation (m)</th><th>Recommended depth ± SE (m)</th><th>Refractor elevation (m)</th><th>Method</th>${methods.map((m) => `<th>${escapeHtml(m)} depth (m)</th>`).join('')}</tr></thead><tbody>${rows}</tbody></table>${interceptText}${cautions}`;
+    const u = fig.lengthLabel;
+    return `<h3>Refractor ${r.index}: top of layer ${r.index + 1} (${fig.withUnit('velocity', () => fig.num(`layers.${r.index}.velocity_mps`, 0))}); recommended: ${escapeHtml(r.method)}</h3>
+<table class="data depths"><thead><tr><th>Station</th><th>x (${u})</th><th>Ground elevation (${u})</th><th>Recommended depth ± SE (${u})</th><th>Refractor elevation (${u})</th><th>Method</th>${methods.map((m) => `<th>${escapeHtml(m)} depth (${u})</th>`).join('')}</tr></thead><tbody>${rows}</tbody></table>${interceptText}${cautions}`;
   }).join('');
   const none = result.refractors.length === 0 ? '<p>No refractor was found, so no depth is reported.</p>' : '';
   return `<section id="depths"><h2><span class="no">6</span> Depth to each refractor</h2>
-<p class="note">Depth is vertical, below the ground at each geophone; SE is one standard error. A dash means the method gives no depth there. These depths are interpretations to be confirmed by borings before a foundation is designed on them (section 10).</p>${none}${tables}</section>`;
+<p class="note">Depth is vertical, below the ground at each geophone; SE is one standard error.${fig.unit === 'ft' ? ' Lengths in feet (1 ft = 0.3048 m exactly).' : ''} A dash means the method gives no depth there. These depths are interpretations to be confirmed by borings before a foundation is designed on them (section 10).</p>${none}${tables}</section>`;
 }
 
 /** Section 7: Vs30 with its range, and each standard's class with its probability; estimated values labelled. */
@@ -93,16 +95,16 @@ export function siteSection(input: ReportInput, fig: Figures): string {
     const notes = [c.borderline ? `borderline: ${escapeHtml(c.neighbour ?? 'another class')} possible` : '', c.basis === 'profile shape' ? `by profile shape (by velocity alone: ${escapeHtml(c.velocityClass ?? '')})` : '', c.estimatedRange ? `v̄s/1.3, v̄s, 1.3 v̄s give ${escapeHtml(c.estimatedRange.low.class)}, ${escapeHtml(c.estimatedRange.central.class)}, ${escapeHtml(c.estimatedRange.high.class)}; the most critical governs` : ''].filter(Boolean).join('; ');
     return `<tr><td class="tight">${escapeHtml(c.standard)}</td><td class="tight">${escapeHtml(c.table)}</td><td class="n">${fig.num(`${p}.average_velocity_mps`, 0)}</td><td class="n">${fig.num(`${p}.averaging_depth_m`, 2)}</td><td class="cls">${escapeHtml(c.class)}${site.estimated ? ' (estimated)' : ''}</td><td class="n">${fig.num(`${p}.probability`, 2)}</td><td>${notes || '—'}</td></tr>`;
   }).join('');
-  const notes = site.classes.flatMap((c) => c.notes.map((n) => `<li>${escapeHtml(c.standard)}: ${escapeHtml(n)}</li>`)).join('');
+  const notes = site.classes.flatMap((c) => (fig.unit === 'm' ? c.notes : c.noteTexts ?? c.notes).map((n) => `<li>${escapeHtml(c.standard)}: ${escapeHtml(typeof n === 'string' ? (fig.unit === 'm' ? n : displayText({ message: n }, fig.unit)) : displayText(n, fig.unit))}</li>`)).join('');
   return `<section id="site"><h2><span class="no">7</span> Vs30 and site class${site.estimated ? ' (estimated)' : ''}</h2>${basis}
 <table class="data kv"><tbody>
-<tr><th scope="row">Vs30${site.estimated ? ' (estimated)' : ''}, time-averaged over the top 30 m</th><td class="n">${fig.num('site.vs30_mps', 0)} m/s</td></tr>
-<tr><th scope="row">5th to 95th percentile (${fig.num('site.monte_carlo.draws', 0)} Monte Carlo draws, seed ${fig.num('site.monte_carlo.seed', 0)})</th><td class="n">${fig.num('site.vs30_low_mps', 0)} to ${fig.num('site.vs30_high_mps', 0)} m/s</td></tr>
-<tr><th scope="row">Along the line (${fig.num('site.along_line.length', 0)} stations)</th><td class="n">${fig.num('site.along_line_min_mps', 0)} to ${fig.num('site.along_line_max_mps', 0)} m/s</td></tr>
-<tr><th scope="row">Of the top 30 m, extrapolated below the deepest refractor</th><td class="n">${fig.num('site.extrapolated_m', 1)} m</td></tr>
+<tr><th scope="row">Vs30${site.estimated ? ' (estimated)' : ''}, time-averaged over the top ${fig.plain('length', 30, 0)}</th><td class="n">${fig.withUnit('velocity', () => fig.num('site.vs30_mps', 0))}</td></tr>
+<tr><th scope="row">5th to 95th percentile (${fig.num('site.monte_carlo.draws', 0)} Monte Carlo draws, seed ${fig.num('site.monte_carlo.seed', 0)})</th><td class="n">${fig.withUnit('velocity', () => `${fig.num('site.vs30_low_mps', 0)} to ${fig.num('site.vs30_high_mps', 0)}`)}</td></tr>
+<tr><th scope="row">Along the line (${fig.num('site.along_line.length', 0)} stations)</th><td class="n">${fig.withUnit('velocity', () => `${fig.num('site.along_line_min_mps', 0)} to ${fig.num('site.along_line_max_mps', 0)}`)}</td></tr>
+<tr><th scope="row">Of the top ${fig.plain('length', 30, 0)}, extrapolated below the deepest refractor</th><td class="n">${fig.withUnit('length', () => fig.num('site.extrapolated_m', 1))}</td></tr>
 </tbody></table>
-<table class="data"><thead><tr><th>Standard</th><th>Table</th><th>v̄s (m/s)</th><th>Averaged over (m)</th><th>Class</th><th>Probability</th><th>Remarks</th></tr></thead><tbody>${rows}</tbody></table>
-<p class="note">v̄s is averaged over each standard’s own depth (30 m, or 100 ft = 30.48 m for ASCE 7). Probability is the share of Monte Carlo draws (velocities and depths drawn from their standard errors, a station drawn along the line) that give the class shown. A value on a class bound is given to the softer class.</p>
+<table class="data"><thead><tr><th>Standard</th><th>Table</th><th>v̄s (${fig.velocityLabel})</th><th>Averaged over (${fig.lengthLabel})</th><th>Class</th><th>Probability</th><th>Remarks</th></tr></thead><tbody>${rows}</tbody></table>
+<p class="note">v̄s is averaged over each standard’s own depth (${fig.unit === 'ft' ? '100 ft [30.48 m] for ASCE 7, 98.4 ft [30 m] for EN 1998-1' : '30 m, or 100 ft = 30.48 m for ASCE 7'}). Probability is the share of Monte Carlo draws (velocities and depths drawn from their standard errors, a station drawn along the line) that give the class shown. A value on a class bound is given to the softer class.</p>
 ${notes ? `<ul class="qualifiers">${notes}</ul>` : ''}${pLineCheck(fig)}</section>`;
 }
 
@@ -110,13 +112,13 @@ ${notes ? `<ul class="qualifiers">${notes}</ul>` : ''}${pLineCheck(fig)}</sectio
 function tomogramFigure(input: ReportInput, fig: Figures): string {
   const t = fig.get('tomogram') as TomogramDocument & { iterations: unknown[]; contours: { velocity_mps: number }[] };
   const refractors = input.result.refractors.map((r) => r.points.map((p) => ({ x: p.x, elev: p.elev })));
-  const { svg, bands, exaggeration } = tomogramSvg(t, input.receivers, refractors);
+  const { svg, bands, exaggeration } = tomogramSvg(t, input.receivers, refractors, fig.unit);
   const last = t.iterations.length - 1;
   const scale = bands.map((b) => `<span class="key"><svg viewBox="0 0 10 8" class="swatch"><rect x="0" y="0" width="10" height="8" fill="${b.colour}"/></svg>${b.low}–${b.high}</span>`).join('');
   const rows = t.contours.map((contour, i) => `<tr><td class="n">${fig.num(`tomogram.contours.${i}.velocity_mps`, 0)}</td><td class="n">${fig.agg(`tomogram.contours.${i}.points`, 'depth_m', 'min', 1)} to ${fig.agg(`tomogram.contours.${i}.points`, 'depth_m', 'max', 1)}</td><td class="n">${fig.agg(`tomogram.contours.${i}.points`, 'layered_depth_m', 'min', 1)} to ${fig.agg(`tomogram.contours.${i}.points`, 'layered_depth_m', 'max', 1)}</td></tr>`).join('');
-  const table = t.contours.length === 0 ? '' : `<table class="data"><thead><tr><th>Contour (m/s)</th><th>Contour depth below ground (m)</th><th>Layered depth below ground at the same geophones (m)</th></tr></thead><tbody>${rows}</tbody></table>`;
-  return `<figure class="tomogram">${svg}<figcaption><span class="legend">${scale}<span class="key">m/s</span><span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#111" stroke-width="1.4"/></svg>velocity contour</span><span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#111" stroke-width="1" stroke-dasharray="4 2"/></svg>layered refractor (recommended)</span></span>
-Figure 3. First-arrival traveltime tomogram of the same first breaks, a second opinion beside the layered section and not mixed into it: ${fig.text('tomogram.start_model')}; ${fig.num(`tomogram.iterations.${last}.iteration`, 0)} iterations, RMS misfit ${fig.num(`tomogram.iterations.${last}.rms_ms`, 2)} ms against a pick noise of ${fig.num('tomogram.pick_noise_ms', 2)} ms. Cells no first break samples are blank. Vertical exaggeration ${exaggeration.toFixed(1)} : 1. Contours are drawn at the velocities midway (geometric mean) between consecutive layer velocities; the cautions on tomograms are in section 10.</figcaption></figure>${table}`;
+  const table = t.contours.length === 0 ? '' : `<table class="data"><thead><tr><th>Contour (${fig.velocityLabel})</th><th>Contour depth below ground (${fig.lengthLabel})</th><th>Layered depth below ground at the same geophones (${fig.lengthLabel})</th></tr></thead><tbody>${rows}</tbody></table>`;
+  return `<figure class="tomogram">${svg}<figcaption><span class="legend">${scale}<span class="key">${fig.velocityLabel}</span><span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#111" stroke-width="1.4"/></svg>velocity contour</span><span class="key"><svg viewBox="0 0 20 8" class="swatch"><line x1="0" y1="4" x2="20" y2="4" stroke="#111" stroke-width="1" stroke-dasharray="4 2"/></svg>layered refractor (recommended)</span></span>
+Figure 3. First-arrival traveltime tomogram of the same first breaks, a second opinion beside the layered section and not mixed into it: ${escapeHtml(fig.sentence(String(fig.get('tomogram.start_model') ?? '')))}; ${fig.num(`tomogram.iterations.${last}.iteration`, 0)} iterations, RMS misfit ${fig.num(`tomogram.iterations.${last}.rms_ms`, 2)} ms against a pick noise of ${fig.num('tomogram.pick_noise_ms', 2)} ms. Cells no first break samples are blank. Vertical exaggeration ${exaggeration.toFixed(1)} : 1. Contours are drawn at the velocities midway (geometric mean) between consecutive layer velocities; the cautions on tomograms are in section 10.</figcaption></figure>${table}`;
 }
 
 /** The check of the shear-wave layers against the P-wave line over the same ground, when one was given. */
@@ -125,8 +127,8 @@ function pLineCheck(fig: Figures): string {
   if (check === undefined) return '';
   const rows = check.layers.map((l, i) => {
     const p = `p_line_check.layers.${i}`;
-    return `<tr><td class="n">${fig.num(`${p}.layer`, 0)}</td><td class="n">${fig.num(`${p}.top_m`, 1)} to ${fig.get(`${p}.bottom_m`) === null ? 'below' : fig.num(`${p}.bottom_m`, 1)}</td><td class="n">${fig.num(`${p}.vs_mps`, 0)}</td><td class="n">${fig.num(`${p}.vp_mps`, 0)}</td><td class="n">${fig.num(`${p}.vp_vs`, 2)}</td><td>${l.plausible ? 'plausible' : '<strong>implausible</strong>'}: ${escapeHtml(l.range_basis)}</td></tr>`;
+    return `<tr><td class="n">${fig.num(`${p}.layer`, 0)}</td><td class="n">${fig.num(`${p}.top_m`, 1)} to ${fig.get(`${p}.bottom_m`) === null ? 'below' : fig.num(`${p}.bottom_m`, 1)}</td><td class="n">${fig.num(`${p}.vs_mps`, 0)}</td><td class="n">${fig.num(`${p}.vp_mps`, 0)}</td><td class="n">${fig.num(`${p}.vp_vs`, 2)}</td><td>${l.plausible ? 'plausible' : '<strong>implausible</strong>'}: ${escapeHtml(fig.unit === 'm' ? l.range_basis : displayText({ message: l.range_basis }, fig.unit))}</td></tr>`;
   }).join('');
   return `<h3>Shear-wave velocities checked against the P-wave line</h3><p>P-wave line over the same ground: ${escapeHtml(check.file)}. Vs must be lower than Vp in the same material (Vp/Vs at least √2 by elasticity).</p>
-<table class="data"><thead><tr><th>Layer</th><th>Depth (m)</th><th>Vs (m/s)</th><th>Vp (m/s)</th><th>Vp/Vs</th><th>Check</th></tr></thead><tbody>${rows}</tbody></table>`;
+<table class="data"><thead><tr><th>Layer</th><th>Depth (${fig.lengthLabel})</th><th>Vs (${fig.velocityLabel})</th><th>Vp (${fig.velocityLabel})</th><th>Vp/Vs</th><th>Check</th></tr></thead><tbody>${rows}</tbody></table>`;
 }

@@ -3,6 +3,7 @@ import { escapeHtml } from '../escape.js';
 import { frame } from './frame.js';
 import { c } from './ticks.js';
 import { minOf, maxOf } from '../../../core/extent.js';
+import { METRES_PER_FOOT, type LengthUnit } from '../../../core/units.js';
 
 export interface SectionRefractor {
   index: number;
@@ -20,6 +21,8 @@ export interface SectionInput {
   refractors: SectionRefractor[];
   /** Text of each layer's label, top down, for example "450 ± 6 m/s"; the HTML of it (numbers marked). */
   layerLabels: string[];
+  /** Unit the axes are drawn in (positions and elevations are given in metres). Default metres. */
+  unit?: LengthUnit;
 }
 
 /** Line styles of the depth methods (dash patterns), shared by the figure and its legend. */
@@ -40,7 +43,9 @@ export const REFRACTOR_COLOURS = ['#9c3d10', '#1f4e79', '#2d6a4f', '#6a3d9a'];
  * ± one standard error. Positions and elevations in metres; the vertical exaggeration is returned
  * for the caption.
  */
-export function depthSectionSvg(input: SectionInput, width = 680, height = 330): { svg: string; exaggeration: number } {
+export function depthSectionSvg(given: SectionInput, width = 680, height = 330): { svg: string; exaggeration: number } {
+  const unit = given.unit ?? 'm';
+  const input = unit === 'ft' ? inFeet(given) : given;
   const xs = [...input.receivers.map((r) => r.x), ...input.sources.map((s) => s.x)];
   const elevs: number[] = [...input.receivers.map((r) => r.elev), ...input.sources.map((s) => s.elev)];
   for (const r of input.refractors) {
@@ -50,7 +55,7 @@ export function depthSectionSvg(input: SectionInput, width = 680, height = 330):
   const top = maxOf(elevs);
   const bottomElev = minOf(elevs);
   const pad = Math.max(1, 0.12 * (top - bottomElev));
-  const f = frame({ width, height, xDomain: [minOf(xs), maxOf(xs)], yDomain: [bottomElev - pad, top + pad * 0.5], xTitle: 'Position along the line (m)', yTitle: 'Elevation (m)' });
+  const f = frame({ width, height, xDomain: [minOf(xs), maxOf(xs)], yDomain: [bottomElev - pad, top + pad * 0.5], xTitle: `Position along the line (${unit})`, yTitle: `Elevation (${unit})` });
   const exaggeration = ((f.bottom - f.top) / (f.yDomain[1] - f.yDomain[0])) / ((f.right - f.left) / (f.xDomain[1] - f.xDomain[0]));
   const parts: string[] = [f.axes];
   const path = (points: { x: number; y: number }[]) => points.map((p, i) => `${i === 0 ? 'M' : 'L'}${c(f.x(p.x))} ${c(f.y(p.y))}`).join('');
@@ -110,4 +115,20 @@ export function depthSectionSvg(input: SectionInput, width = 680, height = 330):
   });
   const svg = `<svg class="figure-svg" viewBox="0 0 ${width} ${height}" role="img" aria-label="${escapeHtml('Depth section: ground surface and refractors with their uncertainty bands')}">${parts.join('')}</svg>`;
   return { svg, exaggeration };
+}
+
+/** The section's positions, elevations and standard errors in feet (1 ft = 0.3048 m exactly). */
+function inFeet(input: SectionInput): SectionInput {
+  const k = 1 / METRES_PER_FOOT;
+  const point = (p: RefractorPoint): RefractorPoint => ({ ...p, x: p.x * k, elev: p.elev * k, depth: p.depth * k, depthSe: p.depthSe * k });
+  return {
+    ...input,
+    receivers: input.receivers.map((r) => ({ x: r.x * k, elev: r.elev * k })),
+    sources: input.sources.map((s) => ({ ...s, x: s.x * k, elev: s.elev * k })),
+    refractors: input.refractors.map((r) => ({
+      ...r,
+      points: r.points.map(point),
+      byMethod: Object.fromEntries(Object.entries(r.byMethod).map(([m, points]) => [m, points.map(point)])),
+    })),
+  };
 }

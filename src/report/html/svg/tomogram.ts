@@ -2,6 +2,7 @@ import { escapeHtml } from '../escape.js';
 import { frame } from './frame.js';
 import { c, niceTicks } from './ticks.js';
 import { maxOf, minOf } from '../../../core/extent.js';
+import { METRES_PER_FOOT, type LengthUnit } from '../../../core/units.js';
 
 /** The part of a hammerline/tomogram@1 document the figure draws. */
 export interface TomogramDocument {
@@ -18,7 +19,16 @@ const BAND_COLOURS = ['#f7f1dc', '#efe0b4', '#e3c98a', '#cfae6a', '#a9a27a', '#7
  * contours as dark lines, the layered section's refractors as dashed lines for comparison, and the
  * ground surface. Positions and elevations in metres, velocities in m/s.
  */
-export function tomogramSvg(t: TomogramDocument, ground: { x: number; elev: number }[], refractors: { x: number; elev: number }[][], width = 680, height = 330): { svg: string; bands: { low: number; high: number; colour: string }[]; exaggeration: number } {
+export function tomogramSvg(given: TomogramDocument, groundGiven: { x: number; elev: number }[], refractorsGiven: { x: number; elev: number }[][], unit: LengthUnit = 'm', width = 680, height = 330): { svg: string; bands: { low: number; high: number; colour: string }[]; exaggeration: number } {
+  // In feet every position, elevation, cell size and velocity is drawn in ft and ft/s.
+  const k = unit === 'ft' ? 1 / METRES_PER_FOOT : 1;
+  const scaled = (p: { x: number; elev: number }) => ({ x: p.x * k, elev: p.elev * k });
+  const ground = groundGiven.map(scaled);
+  const refractors = refractorsGiven.map((r) => r.map(scaled));
+  const t: TomogramDocument = k === 1 ? given : {
+    grid: { ...given.grid, x0_m: given.grid.x0_m * k, top_elev_m: given.grid.top_elev_m * k, cell_m: given.grid.cell_m * k, velocity_mps: given.grid.velocity_mps.map((v) => (v === null ? null : v * k)) },
+    contours: given.contours.map((contour) => ({ ...contour, velocity_mps: contour.velocity_mps * k, points: contour.points.map((p) => ({ ...p, x_m: p.x_m * k, elev_m: p.elev_m === null ? null : p.elev_m * k })) })),
+  };
   const g = t.grid;
   const velocities = g.velocity_mps.filter((v): v is number => v !== null);
   const scale = niceTicks(minOf(velocities), maxOf(velocities), BAND_COLOURS.length);
@@ -27,7 +37,7 @@ export function tomogramSvg(t: TomogramDocument, ground: { x: number; elev: numb
   const x0 = g.x0_m - g.cell_m / 2;
   const x1 = g.x0_m + (g.nx - 0.5) * g.cell_m;
   const bottom = g.top_elev_m - (g.nz - 0.5) * g.cell_m;
-  const f = frame({ width, height, xDomain: [x0, x1], yDomain: [bottom, Math.max(g.top_elev_m, ...ground.map((p) => p.elev))], xTitle: 'Position along the line (m)', yTitle: 'Elevation (m)' });
+  const f = frame({ width, height, xDomain: [x0, x1], yDomain: [bottom, Math.max(g.top_elev_m, ...ground.map((p) => p.elev))], xTitle: `Position along the line (${unit})`, yTitle: `Elevation (${unit})` });
   const exaggeration = ((f.bottom - f.top) / (f.yDomain[1] - f.yDomain[0])) / ((f.right - f.left) / (f.xDomain[1] - f.xDomain[0]));
   const parts: string[] = [f.axes, '<g class="cells">'];
   for (let j = 0; j < g.nz; j++) {
