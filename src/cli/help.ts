@@ -6,7 +6,8 @@ const HEADER = `hammerline ${VERSION}: seismic-refraction interpretation for sha
 Usage:
   hammerline interpret FILE.csv [FILE.csv ...] [options]
   hammerline interpret SHOT.seg2 [SHOT.seg2 ...] [geometry and picking options] [options]
-  hammerline report FILE.csv | SHOT.seg2 ... -o REPORT.html [--pdf REPORT.pdf] [job details] [exports] [interpret options]
+  hammerline interpret PROJECT.json [options]
+  hammerline report FILE.csv | SHOT.seg2 ... | PROJECT.json -o REPORT.html [--pdf REPORT.pdf] [job details] [exports] [interpret options]
   hammerline pick SHOT.seg2 [SHOT.seg2 ...] [-o FILE.csv] [geometry and picking options]
   hammerline records SHOT.seg2 [...] [--json]
   hammerline tomography FILE.csv | SHOT.seg2 ... [--contour V] [--json] [-o FILE] [--grid-csv FILE]
@@ -16,7 +17,9 @@ Usage:
 `;
 
 const INTERPRET = `interpret: reads first-break tables (CSV: source_id, source_x, source_elev, receiver_x,
-receiver_elev, time_ms or time_s, optional wave) or SEG-2 records, and prints layer velocities with
+receiver_elev, time_ms or time_s, optional wave), SEG-2 records, or a project file saved by the
+field app (hammerline/project@1: its records or table with the picks set by hand and its
+choices; an option given here replaces the project's choice), and prints layer velocities with
 their standard errors, the depth to each refractor under every geophone (plus-minus, GRM and
 delay-time; intercept-time under the sources; the layered inversion, recommended when it fits
 the picks better), reciprocal times, a forward check of the section,
@@ -100,7 +103,9 @@ to interpret are the shots of one line: they are picked, then interpreted togeth
 
 const REPORT = `report: the report of one line for a permit packet, as one self-contained HTML file (figures
 inline, nothing loaded from anywhere) that prints to PDF on A4 or Letter; every option of
-interpret applies (--wave S, --poisson, --p-line, --stations, --segments ...); with --units ft
+interpret applies (--wave S, --poisson, --p-line, --stations, --segments ...). A project file of
+the field app (PROJECT.json) gives the line with the picks set by hand, listed in the quality
+checks beside the picks they replaced, in the project's unit unless --units is given. With --units ft
 every length and velocity of the report is in ft and ft/s (the metric value in brackets in its
 sentences), while the JSON, CSV and GeoJSON keep metres as their field names say.
   -o, --output FILE.html   the report (whole or not at all; never over an input file)

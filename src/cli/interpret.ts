@@ -19,6 +19,7 @@ import { round } from '../io/numbers.js';
 import { toMetres } from '../core/units.js';
 import { pushAll } from '../core/extent.js';
 import { DEFAULT_SMOOTHING } from '../model/layeredInversion.js';
+import { interpretProject, isProjectFile, pickEditsJson } from './project.js';
 
 /** Options of interpret that choose how a line is interpreted; report accepts the same. */
 export const INTERPRET_OPTIONS = {
@@ -155,7 +156,7 @@ export function interpretTable(file: string, choices: InterpretChoices, io: CliI
 }
 
 /** With --p-line: the S line compared with the P line at the same depths, kept in the result (summary and JSON show it). */
-function checkAgainstPLine(result: InterpretationResult, file: string, choices: InterpretChoices): void {
+export function checkAgainstPLine(result: InterpretationResult, file: string, choices: InterpretChoices): void {
   if (choices.pLine === undefined) return;
   if (result.wave !== 'S') throw new InputError({ file }, '--p-line compares an S-wave line with a P-wave line; this line is not an S-wave line (use --wave S or a wave column)');
   const log = new WarningLog();
@@ -175,11 +176,28 @@ export function interpretCommand(args: string[], io: CliIo): number {
     io.stdout(commandHelp('interpret'));
     return 0;
   }
-  if (positionals.length === 0) throw new InputError({}, 'interpret needs at least one first-break table (FILE.csv)');
+  if (positionals.length === 0) throw new InputError({}, 'interpret needs at least one first-break table (FILE.csv), the SEG-2 records of one line, or a project file of the field app (PROJECT.json)');
   checkOutputPaths([...positionals, ...[values['p-line'], values.stations].filter((f): f is string => typeof f === 'string')],
     [{ option: '-o', path: values.output as string | undefined }, { option: '--depths', path: values.depths as string | undefined }]);
   const choices = interpretChoices(values, io);
   const { unit } = choices;
+
+  // A project file of the field app: its line with the picks set by hand, in the project's unit unless --units is given.
+  const projectFile = positionals.find((file) => isProjectFile(io, file));
+  if (projectFile !== undefined) {
+    if (positionals.length > 1) throw new InputError({ file: projectFile }, 'is a project file given with other files; interpret a project file alone (it holds the records or table of its line)');
+    const { result, table, rows, line, unit: shown } = interpretProject(projectFile, values, choices, io);
+    if (values.depths) io.writeText(values.depths as string, depthsCsv(result, receiverGround(table), shown));
+    const document = interpretationJson(result, {
+      ...(rows ? { picking: { records: line.records.map((r) => r.name), wave: result.wave, picked: rows.filter((r) => r.time !== undefined).length, traces: rows.length } } : {}),
+      pick_edits: pickEditsJson(line.applied),
+    });
+    if (rows && document.site !== undefined) (document.site as Record<string, unknown>).records = result.records ?? line.records.map((r) => r.name);
+    const output = values.json ? JSON.stringify(document, null, 2) + '\n' : summary(result, shown);
+    if (values.output) io.writeText(values.output as string, output);
+    else io.stdout(output);
+    return 0;
+  }
 
   const documents: Record<string, unknown>[] = [];
   const texts: string[] = [];

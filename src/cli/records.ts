@@ -7,6 +7,7 @@ import { pickTableCsv, unpickedSummary } from '../io/pickTable.js';
 import { readSeg2 } from '../io/seg2/read.js';
 import type { Seg2Record } from '../io/seg2/types.js';
 import { readStations } from '../io/stationsCsv.js';
+import { traceLabeller } from '../io/projectLine.js';
 import { geometryNotes, pickSeg2, type PickRow } from '../picking/recordPicks.js';
 import { pickRecords, type RecordGroup, type RecordsPickOptions } from '../picking/pickRecords.js';
 import { commandHelp } from './help.js';
@@ -147,20 +148,8 @@ function checkRecordVelocities(record: Seg2Record, picked: PickRow[], wave: Wave
   else throw new InputError({ file: record.file }, problem);
 }
 
-/**
- * Rewrites "row N" and "rows N, M" of the table made from picked records (pickTableCsv: header on
- * line 1, one line per picked trace) as the record and trace they came from.
- */
-export function traceLabeller(rows: PickRow[]): (text: string) => string {
-  const picked = rows.filter((r) => r.time !== undefined);
-  const label = (line: string) => {
-    const row = picked[Number(line) - 2];
-    return row === undefined ? `row ${line}` : `${row.file} trace ${row.trace}`;
-  };
-  return (text) => text
-    .replace(/\brows (\d+(?:, \d+)*)/g, (_, list: string) => list.split(', ').map(label).join(', '))
-    .replace(/\brow (\d+)/g, (_, line: string) => label(line));
-}
+// The table made from picked records: its rows are traces to the user (io/projectLine.ts).
+export { traceLabeller };
 
 export function pickCommand(args: string[], io: CliIo): number {
   const { values, positionals } = parse(args, { ...GEOMETRY_OPTIONS, wave: { type: 'string' }, output: { type: 'string', short: 'o' }, units: { type: 'string' }, quiet: { type: 'boolean', short: 'q' }, 'accept-velocities': { type: 'boolean' }, help: { type: 'boolean', short: 'h' } });

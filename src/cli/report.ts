@@ -21,6 +21,7 @@ import { commandHelp } from './help.js';
 import { INTERPRET_OPTIONS, interpretChoices, interpretRecords, interpretTable } from './interpret.js';
 import { checkOutputPaths, type CliIo } from './io.js';
 import { isSeg2 } from './records.js';
+import { interpretProject, isProjectFile, pickEditsJson, type InterpretedProject } from './project.js';
 
 /** Options of report beyond those of interpret. */
 const REPORT_OPTIONS = {
@@ -54,7 +55,7 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
     io.stdout(commandHelp('report'));
     return 0;
   }
-  if (positionals.length === 0) throw new InputError({}, 'report needs the first breaks of one line: a first-break table (FILE.csv) or the SEG-2 records of the line');
+  if (positionals.length === 0) throw new InputError({}, 'report needs the first breaks of one line: a first-break table (FILE.csv), the SEG-2 records of the line, or a project file of the field app (PROJECT.json)');
   const outputs: [string, string][] = (['output', 'pdf', 'depths-csv', 'geojson', 'json'] as const)
     .filter((name) => values[name] !== undefined).map((name) => [name === 'output' ? '-o' : `--${name}`, values[name] as string]);
   if (values.output === undefined && values.pdf === undefined) throw new InputError({}, 'report needs -o FILE.html or --pdf FILE.pdf (or both) to say where the report goes');
@@ -71,11 +72,18 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
   if (values.pdf !== undefined) requireChromium();
 
   const choices = interpretChoices(values, io);
-  const records = positionals.filter((file) => isSeg2(io, file));
+  const projectFile = positionals.find((file) => isProjectFile(io, file));
+  if (projectFile !== undefined && positionals.length > 1) throw new InputError({ file: projectFile }, 'is a project file given with other files; a report is of one line: give its project file alone (it holds the records or table of the line)');
+  let records = projectFile === undefined ? positionals.filter((file) => isSeg2(io, file)) : [];
   let result: InterpretationResult;
   let table: FirstBreakTable;
   let rows: PickRow[] | undefined;
-  if (records.length > 0) {
+  let project: InterpretedProject | undefined;
+  if (projectFile !== undefined) {
+    project = interpretProject(projectFile, values, choices, io);
+    ({ result, table, rows } = project);
+    records = project.line.records.map((r) => r.name);
+  } else if (records.length > 0) {
     if (records.length !== positionals.length) throw new InputError({ file: positionals.find((f) => !records.includes(f)) }, 'is a first-break table given with SEG-2 records; a report is of one line: give its first-break table or its records, not both');
     ({ result, table, rows } = interpretRecords(records, values, choices, io));
   } else {
@@ -89,10 +97,12 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
   const receivers = receiverGround(table);
   const spacing = receiverSpacing(table);
   const missing = missingJobDetails(job);
-  if (!table.hasElevations && values.stations === undefined) missing.push('ground elevations (none were supplied; flat ground was assumed)');
+  const projectStations = project?.project.inputs.find((i) => i.kind === 'stations');
+  if (!table.hasElevations && values.stations === undefined && projectStations === undefined) missing.push('ground elevations (none were supplied; flat ground was assumed)');
   else if (job.elevationDatum === undefined) missing.push('Elevation datum (of the ground elevations supplied)');
   const notices: string[] = [];
-  const unit = choices.unit;
+  // The unit the report is shown in: --units, or the project's own.
+  const unit = project?.unit ?? choices.unit;
   // Computed in SI; with --units ft the report shows feet and ft/s (the SI value in brackets in
   // the text), and says so at the top, since its exports keep SI.
   if (unit === 'ft') notices.push('Lengths are given in feet and velocities in feet per second (1 ft = 0.3048 m exactly), the metric values following in brackets in the text; the JSON, depth-profile CSV and GeoJSON files that accompany this report give metres and m/s, as their field names say.');
@@ -111,7 +121,8 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
     throw new InputError({}, '--geojson needs the coordinates of the line ends: give --line-start LON,LAT and --line-end LON,LAT (decimal degrees, WGS 84; the first and the last geophone), or line_start and line_end in the --job file');
   }
 
-  const stationLabels = values.stations !== undefined ? readStations(readInput(io, values.stations as string), values.stations as string, choices.unit).rows : [];
+  const stationLabels = values.stations !== undefined ? readStations(readInput(io, values.stations as string), values.stations as string, choices.unit).rows
+    : projectStations !== undefined ? readStations(new TextDecoder().decode(projectStations.bytes), projectStations.name, projectStations.lengthUnit).rows : [];
   const stationAt = (x: number, i: number) => stationLabels.find((s) => Math.abs(s.x - x) < 1e-6 && s.station !== undefined)?.station ?? i + 1;
   const sources = [...new Map(result.fits.map((f) => [f.branch.sourceId, f.branch])).values()].sort((a, b) => a.sourceX - b.sourceX);
   const layout = {
@@ -119,7 +130,7 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
     first_x_m: round(receivers[0].x, 3),
     last_x_m: round(receivers[receivers.length - 1].x, 3),
     spacing_m: round(spacing, 3),
-    elevations_given: table.hasElevations || values.stations !== undefined,
+    elevations_given: table.hasElevations || values.stations !== undefined || projectStations !== undefined,
     source_count: sources.length,
     sources: sources.map((s) => ({ id: s.sourceId, x_m: round(s.sourceX, 3), elev_m: round(s.sourceElev, 3) })),
     receivers: receivers.map((r, i) => ({ station: stationAt(r.x, i), x_m: round(r.x, 3), elev_m: round(r.elev, 3) })),
@@ -131,11 +142,12 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
     job: jobJson(job),
     ...(rows ? { picking: { records, picked: rows.filter((r) => r.time !== undefined).length, traces: rows.length, status_counts: statusCounts } } : {}),
   };
+  if (project !== undefined) extra.pick_edits = pickEditsJson(project.line.applied);
   if (values.tomography) extra.tomogram = tomogramOf(table, result);
   const document = interpretationJson(result, extra);
 
   const roles: [string | undefined, string][] = [
-    ...positionals.map((f): [string, string] => [f, records.length > 0 ? 'SEG-2 shot record' : 'first-break table']),
+    ...positionals.map((f): [string, string] => [f, project !== undefined ? 'project file of the field app' : records.length > 0 ? 'SEG-2 shot record' : 'first-break table']),
     [values.stations as string | undefined, 'station table'],
     [values['p-line'] as string | undefined, 'P-wave line (check of Vs < Vp)'],
     [values.job as string | undefined, 'job details'],
@@ -144,6 +156,9 @@ export function reportCommand(args: string[], io: CliIo, context: { now?: () => 
     const bytes = io.readBytes(file);
     return { file, role, bytes: bytes.length, sha256: sha256(bytes) };
   });
+  // The files inside a project file, each with its own digest.
+  const INPUT_ROLES = { seg2: 'SEG-2 shot record, in the project file', 'first-breaks': 'first-break table, in the project file', stations: 'station table, in the project file' } as const;
+  for (const input of project?.project.inputs ?? []) files.push({ file: input.name, role: INPUT_ROLES[input.kind], bytes: input.bytes.length, sha256: sha256(input.bytes) });
   const html = reportHtml({
     result, document, receivers, hasElevations: layout.elevations_given, job, missing, notices, inputs: files,
     command: ['report', ...args], version: context.version ?? VERSION, issued, paper, unit,

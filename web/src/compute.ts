@@ -1,25 +1,21 @@
 import { InputError } from '../../src/core/errors.js';
 import { linearAt } from '../../src/core/interpolate.js';
-import type { FirstBreakTable, Wave } from '../../src/core/types.js';
+import type { Wave } from '../../src/core/types.js';
 import type { LengthUnit } from '../../src/core/units.js';
 import { WarningLog } from '../../src/core/warnings.js';
 import { sampleSection, sectionTimes } from '../../src/forward/sectionTimes.js';
 import { depthsCsv } from '../../src/io/depthsCsv.js';
 import { readFirstBreaks } from '../../src/io/firstBreaksCsv.js';
 import { interpretationJson } from '../../src/io/interpretationJson.js';
-import { pickTableCsv, unpickedSummary } from '../../src/io/pickTable.js';
+import { pickTableCsv } from '../../src/io/pickTable.js';
 import type { PickEdit, ProjectChoices, ProjectInput } from '../../src/io/projectFile.js';
-import { readSeg2 } from '../../src/io/seg2/read.js';
+import { pickKey, pickProjectRecord, projectInterpretOptions, projectLine } from '../../src/io/projectLine.js';
 import { readStations } from '../../src/io/stationsCsv.js';
-import { interpret, receiverGround, receiverSpacing, type InterpretationResult, type InterpretOptions } from '../../src/interpret.js';
-import { pickSeg2, type PickRow, type Stations } from '../../src/picking/recordPicks.js';
-import { checkRecordVelocities, traceLabeller } from './recordRules.js';
+import { interpret, receiverGround, receiverSpacing, type InterpretationResult } from '../../src/interpret.js';
+import type { PickRow, Stations } from '../../src/picking/recordPicks.js';
 import { firstBreakTableCsv } from './tableCsv.js';
 
-/** Key of a pick: a record's trace or a table's file row. */
-export function pickKey(file: string, where: { trace?: number; row?: number }): string {
-  return where.trace !== undefined ? `${file}#t${where.trace}` : `${file}#r${where.row}`;
-}
+export { pickKey };
 
 /** One pick (or unpicked trace) as the views show it. Lengths in metres, times in seconds. */
 export interface PickView {
@@ -88,25 +84,11 @@ export class LineCache {
   rows(input: ProjectInput, stations: Stations | undefined, wave: Wave | 'any'): PickRow[] {
     let rows = this.picked.get(input.name);
     if (rows === undefined) {
-      rows = pickedRecord(input, stations, wave);
+      rows = pickProjectRecord(input, stations, wave);
       this.picked.set(input.name, rows);
     }
     return rows;
   }
-}
-
-/** A record read and picked as `hammerline pick` does it, its units judged from the picks. */
-function pickedRecord(input: ProjectInput, stations: Stations | undefined, wave: Wave | 'any'): PickRow[] {
-  const record = readSeg2(input.bytes, input.name);
-  let rows: PickRow[];
-  try {
-    rows = pickSeg2(record, { stations });
-  } catch (error) {
-    if (error instanceof RangeError) throw new InputError({ file: input.name }, error.message);
-    throw error;
-  }
-  checkRecordVelocities(record, rows, wave);
-  return rows;
 }
 
 /** Checks that one file can be read as the kind it claims, without touching the session. */
@@ -115,26 +97,13 @@ export function checkInput(input: ProjectInput): void {
   // A record's positions may need the station table, which may come later: it is read, and picked when it can be.
   if (input.kind === 'seg2') {
     try {
-      pickedRecord(input, undefined, 'any');
+      pickProjectRecord(input, undefined, 'any');
     } catch (error) {
       if (!(error instanceof InputError && /SOURCE_LOCATION|RECEIVER_LOCATION/.test(error.message))) throw error;
     }
   }
   else if (input.kind === 'stations') readStations(text(), input.name, input.lengthUnit);
   else readFirstBreaks(text(), input.name, new WarningLog(), { lengthUnit: input.lengthUnit });
-}
-
-/** The options `hammerline interpret` would be given for these choices. */
-export function interpretOptions(choices: ProjectChoices): InterpretOptions {
-  return {
-    wave: choices.wave,
-    directThroughOrigin: choices.directThroughOrigin,
-    allowShortBranches: false,
-    site: {},
-    ...(Object.keys(choices.segments).length > 0 ? { segments: { ...choices.segments } } : {}),
-    ...(Object.keys(choices.breakpoints).length > 0 ? { breakpoints: { ...choices.breakpoints } } : {}),
-    ...(choices.poisson !== undefined ? { vsFromVp: { poisson: [choices.poisson] } } : {}),
-  };
 }
 
 /**
@@ -153,69 +122,35 @@ export function computeLine(cache: LineCache, picks: PickEdit[], choices: Projec
 }
 
 function compute(cache: LineCache, edits: PickEdit[], choices: ProjectChoices, units: LengthUnit): LineView | LineFailure {
-  const inputs = cache.getInputs();
-  const records = inputs.filter((i) => i.kind === 'seg2');
-  const tables = inputs.filter((i) => i.kind === 'first-breaks');
-  const stationsInput = inputs.find((i) => i.kind === 'stations');
-  const byKey = new Map(edits.map((e) => [pickKey(e.file, e), e]));
-  const options = interpretOptions(choices);
   const started = performance.now();
-  let table: FirstBreakTable;
-  let log: WarningLog;
+  // The hand edits are put in by src/io/projectLine.ts, as for `hammerline report PROJECT.json`.
+  const line = projectLine(cache.getInputs(), edits, choices, (input, stations, wave) => cache.rows(input, stations, wave));
+  if (line === undefined) return { ok: false, message: 'Load the SEG-2 records of a line, or one first-break table, to begin.' };
+  const options = projectInterpretOptions(choices);
+  const { table, log, name, relabel, records } = line;
+  const edited = new Set(edits.map((e) => pickKey(e.file, e)));
   let picks: PickView[];
-  let name: string;
   let picksCsv: string;
   let extra: Record<string, unknown> = {};
-  let relabel = (text: string) => text;
-  if (records.length > 0) {
-    const stations = stationsInput ? readStations(new TextDecoder().decode(stationsInput.bytes), stationsInput.name, stationsInput.lengthUnit) : undefined;
-    const automatic = records.flatMap((r) => cache.rows(r, stations, choices.wave ?? 'P'));
-    const rows: PickRow[] = automatic.map((row) => {
-      const edit = byKey.get(pickKey(row.file, row));
-      if (edit === undefined) return row;
-      return edit.time === null
-        ? { ...row, time: undefined, confidence: 0, status: 'cleared by hand' as PickRow['status'] }
-        : { ...row, time: edit.time, confidence: 1, status: 'picked' };
-    });
-    name = records.length === 1 ? records[0].name : `${records[0].name} and ${records.length - 1} more record${records.length > 2 ? 's' : ''}`;
-    log = new WarningLog();
-    for (const sentence of unpickedSummary(rows)) log.add('unpicked-traces', sentence);
-    if (byKey.size > 0) log.add('picks-edited', `${edits.filter((e) => e.time !== null).length} pick${edits.length === 1 ? '' : 's'} set by hand and ${edits.filter((e) => e.time === null).length} cleared; the automatic picks of the other traces are kept`);
+  if (line.kind === 'records') {
+    const rows = line.rows!;
+    const automatic = line.automatic!;
     picksCsv = pickTableCsv(rows, units);
     const pickedRows = rows.filter((r) => r.time !== undefined);
-    // The picks reach the interpretation as a table; its rows are traces of records to the user.
-    relabel = traceLabeller(rows);
-    try {
-      table = readFirstBreaks(pickTableCsv(rows, 'm', false), name, log, { wave: choices.wave });
-    } catch (error) {
-      if (error instanceof InputError) throw new InputError({}, relabel(error.message));
-      throw error;
-    }
     // pickTableCsv writes the header on file row 1 and the picked traces in order below it.
     const rowKey = new Map(pickedRows.map((r, i) => [i + 2, pickKey(r.file, r)]));
     picks = rows.map((r, i) => ({
       key: pickKey(r.file, r), file: r.file, trace: r.trace, sourceId: r.sourceId, sourceX: r.sourceX, receiverX: r.receiverX,
-      time: r.time, autoTime: automatic[i].time, confidence: r.confidence, status: r.status, edited: byKey.has(pickKey(r.file, r)), outlier: false,
+      time: r.time, autoTime: automatic[i].time, confidence: r.confidence, status: r.status, edited: edited.has(pickKey(r.file, r)), outlier: false,
     }));
     extra = { picking: { records: records.map((r) => r.name), wave: undefined, picked: pickedRows.length, traces: rows.length } };
     return finish(rowKey);
   }
-  if (tables.length !== 1) return { ok: false, message: 'Load the SEG-2 records of a line, or one first-break table, to begin.' };
-  const input = tables[0];
-  name = input.name;
-  log = new WarningLog();
-  table = readFirstBreaks(new TextDecoder().decode(input.bytes), name, log, { lengthUnit: input.lengthUnit, wave: choices.wave });
-  const all = table.picks;
+  const all = line.tablePicks!;
   const extraByRow = new Map(all.map((p, i) => [p.row, table.extraValues[i]]));
-  table.picks = table.picks.flatMap((p) => {
-    const edit = byKey.get(pickKey(name, { row: p.row }));
-    if (edit === undefined) return [p];
-    return edit.time === null ? [] : [{ ...p, time: edit.time }];
-  });
-  const removed = edits.filter((e) => e.time === null).map((e) => e.row!);
-  if (byKey.size > 0) log.add('picks-edited', `${edits.length - removed.length} pick${edits.length - removed.length === 1 ? '' : 's'} of ${name} moved by hand and ${removed.length} left out (rows ${removed.length > 0 ? removed.join(', ') : 'none'})`);
   picksCsv = firstBreakTableCsv(table, units, extraByRow);
   const rowKey = new Map(table.picks.map((p) => [p.row, pickKey(name, { row: p.row })]));
+  const byKey = new Map(edits.map((e) => [pickKey(e.file, e), e]));
   picks = all.map((p) => {
     const key = pickKey(name, { row: p.row });
     const edit = byKey.get(key);

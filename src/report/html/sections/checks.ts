@@ -41,7 +41,7 @@ export function qualitySection(input: ReportInput, fig: Figures): string {
 <h3>Reciprocal times</h3>${recTable}
 <h3>Branch fits, flagged picks and choices made by hand</h3>
 <table class="data"><thead><tr><th>Source</th><th>Side</th><th>Picks</th><th>Apparent velocities of the segments (${fig.velocityLabel})</th><th>Segments chosen by</th><th>Residual SD (ms)</th><th>Picks left out as outliers (input rows)</th></tr></thead><tbody>${branchRows}</tbody></table>
-${pickingText}<p>${edits}</p></section>`;
+${pickingText}${pickEditTable(fig)}<p>${edits}</p></section>`;
 }
 
 function editedChoices(input: ReportInput, fig: Figures): string {
@@ -53,7 +53,21 @@ function editedChoices(input: ReportInput, fig: Figures): string {
     ...Object.entries(breakpoints).map(([branch, xs]) => `${escapeHtml(branch)}: breakpoints at offsets ${fig.plain('length', xs, 2)}`),
   ];
   if (parameter(step, 'direct_through_origin') === true) parts.push('direct wave forced through the origin');
-  return parts.length === 0 ? 'No pick was edited and no segment choice was fixed by hand: the segments are those chosen by the criterion.' : `Choices fixed by the interpreter: ${parts.join('; ')}.`;
+  const edited = ((fig.get('pick_edits') as unknown[] | undefined) ?? []).length > 0;
+  if (parts.length === 0) return edited ? 'No segment choice was fixed by hand: the segments are those chosen by the criterion, on the picks above.' : 'No pick was edited and no segment choice was fixed by hand: the segments are those chosen by the criterion.';
+  return `Choices fixed by the interpreter: ${parts.join('; ')}.`;
+}
+
+/** The picks set or cleared by hand in the field app (a project file), each beside the pick it replaced. */
+function pickEditTable(fig: Figures): string {
+  const edits = fig.get('pick_edits') as { file: string; trace?: number; row?: number; source_id: string; time_ms: number | null; before_ms: number | null }[] | undefined;
+  if (edits === undefined) return '';
+  if (edits.length === 0) return '<p>The project file holds no pick set by hand: every first break is as picked automatically or as given in the table.</p>';
+  const fromRecords = edits.some((e) => e.trace !== undefined);
+  const rows = edits.map((e, i) => `<tr><td class="file">${escapeHtml(e.file)}</td><td class="n">${e.trace !== undefined ? fig.num(`pick_edits.${i}.trace`, 0) : fig.num(`pick_edits.${i}.row`, 0)}</td><td>${escapeHtml(e.source_id)}</td><td class="n">${fig.num(`pick_edits.${i}.receiver_x_m`, 2)}</td><td class="n">${e.before_ms === null ? 'unpicked' : fig.num(`pick_edits.${i}.before_ms`, 2)}</td><td class="n">${e.time_ms === null ? 'cleared, left out' : fig.num(`pick_edits.${i}.time_ms`, 2)}</td></tr>`).join('');
+  const set = edits.filter((e) => e.time_ms !== null).length;
+  return `<h3>First breaks set by hand</h3><p>${set} first break${set === 1 ? ' was' : 's were'} set by hand and ${edits.length - set} cleared in the field app (project file); the interpretation uses the times set by hand in place of the ${fromRecords ? 'automatic picks' : 'times of the table'} and leaves the cleared ones out. Each edit should be checked on the record by a second interpreter before the depths are relied on.</p>
+<table class="data"><thead><tr><th>File</th><th>${fromRecords ? 'Trace' : 'File row'}</th><th>Source</th><th>Receiver x (${fig.lengthLabel})</th><th>${fromRecords ? 'Automatic pick' : 'Time in the table'} (ms)</th><th>Time used (ms)</th></tr></thead><tbody>${rows}</tbody></table>`;
 }
 
 /** Section 9: every warning the interpretation raised. */
