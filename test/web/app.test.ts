@@ -226,7 +226,20 @@ describe.skipIf(!available)('the field app in chromium', () => {
     await page.waitForSelector('body[data-ready="true"]');
     await settled(page);
     expect(await interpretation(page)).toEqual(edited);
-    // The undo history is not kept across a reload: the edits since are undone one by one.
+    // The undo steps are kept with the session: the last key press before the reload (trace 40
+    // of S1 nudged up from 40.25 to 40.00 ms, 0.25 ms sampling) is undone after it, and redone;
+    // the project file written shows the time of the hand pick at each step.
+    const handPick = async () => (JSON.parse(await exported(page, 'save')) as { picks: { file: string; trace: number; time_ms: number }[] }).picks.map((p) => [p.file, p.trace, p.time_ms]);
+    expect(await handPick()).toEqual([['S1.seg2', 40, 40]]);
+    expect(await page.getAttribute('#undo', 'title')).toBe('Undo nudge S1.seg2 trace 40 (Ctrl+Z)');
+    await page.click('#undo');
+    await settled(page);
+    expect(await handPick()).toEqual([['S1.seg2', 40, 40.25]]);
+    await page.click('#redo');
+    await settled(page);
+    expect(await handPick()).toEqual([['S1.seg2', 40, 40]]);
+    expect(await interpretation(page)).toEqual(edited);
+    // Edits after the reload are undone one by one.
     await page.keyboard.press('Delete');
     await settled(page);
     await tab(page, 'records');

@@ -52,7 +52,7 @@ session.onChange = (label) => {
   updateButtons();
   $('status-edit').textContent = label;
   const saving = revision;
-  void saveSession(session.project).then(
+  void saveSession(session.project, session.history()).then(
     () => { if (saving === revision) { document.body.dataset.savedRevision = String(saving); $('status-saved').textContent = `saved on this device at ${new Date().toLocaleTimeString()}`; } },
     (error: Error) => { $('status-saved').textContent = `NOT saved on this device (${error.message}); save a project file`; },
   );
@@ -289,7 +289,8 @@ async function start(): Promise<void> {
   try {
     const saved = await loadSession();
     if (saved) {
-      session.reset(saved.project, `restored the session saved at ${new Date(saved.saved).toLocaleString()}`);
+      session.restore(saved.project, saved.history, `restored the session saved at ${new Date(saved.saved).toLocaleString()}`);
+      if (saved.historyProblem) $('status-edit').textContent = `Session restored; its undo steps could not be (${saved.historyProblem}): undo starts from here.`;
       showTab(saved.project.inputs.some((i) => i.kind === 'seg2') ? 'records' : 'traveltime');
     } else {
       showLineMessage('');

@@ -1,6 +1,12 @@
 import { emptyProject, type PickEdit, type Project, type ProjectChoices, type ProjectInput } from '../../src/io/projectFile.js';
 import { pickKey } from './compute.js';
 
+/** Undo (past) and redo (future) steps: the project before or after each change, with its label. */
+export interface SessionHistory {
+  past: { project: Project; label: string }[];
+  future: { project: Project; label: string }[];
+}
+
 /**
  * The session: the project now, and the projects before (undo) and after (redo) it. A project is
  * never changed in place; every edit makes a new one, so undo is keeping the old one.
@@ -17,6 +23,19 @@ export class Session {
     this.project = project;
     this.past = [];
     this.future = [];
+    this.onChange(label);
+  }
+
+  /** The undo and redo steps, oldest first (for saving with the session). */
+  history(): SessionHistory {
+    return { past: [...this.past], future: [...this.future] };
+  }
+
+  /** Puts back a session saved with its undo and redo steps (a reload). */
+  restore(project: Project, history: SessionHistory, label: string): void {
+    this.project = project;
+    this.past = history.past.slice(-500);
+    this.future = [...history.future];
     this.onChange(label);
   }
 
