@@ -182,9 +182,11 @@ export function layeredInversion(picks: InversionPick[], start: InversionStart, 
     return system;
   };
 
-  // One workspace for the Jacobian rows: each evaluation with derivatives replaces the last.
-  const workspace = { index: new Int32Array(0), value: new Float64Array(0) };
-  const evaluate = (p: Float64Array, derivatives: boolean) => {
+  // Two workspaces for the Jacobian rows, the current section's and a trial's: a trial step is
+  // evaluated with its derivatives (the times are the same with or without them), so an accepted
+  // step needs no second evaluation; each evaluation replaces the rows last made in its workspace.
+  const workspaces = [{ index: new Int32Array(0), value: new Float64Array(0) }, { index: new Int32Array(0), value: new Float64Array(0) }];
+  const evaluate = (p: Float64Array, derivatives: boolean, workspace = workspaces[0]) => {
     const section = unpackParameters(initial, p, lateral);
     const paths = sectionPaths(sampleNodeSection(section, span, step), shots, derivatives, lateral, workspace);
     const residuals = new Float64Array(picks.length);
@@ -203,18 +205,20 @@ export function layeredInversion(picks: InversionPick[], start: InversionStart, 
   let objective = current.dataMisfit + regularisation(p);
   const rmsBefore = Math.sqrt(current.dataMisfit / picks.length);
   let lambda = 1e-2;
+  let spare = 1;
   let iterations = 0;
   let stopReason: LayeredInversion['stopReason'] = 'iteration limit';
   while (iterations < maxIterations) {
     const { normal, gradient } = normalOf(current.rows!, current.residuals, p);
-    let accepted: { p: Float64Array; objective: number } | undefined;
+    let accepted: { p: Float64Array; objective: number; evaluation: typeof current } | undefined;
     while (lambda < 1e8) {
       const trial = dampedStep(normal, gradient, lambda, unknowns);
       if (trial !== undefined) {
         const next = project(p.map((v, i) => v + trial[i]));
-        const misfit = evaluate(next, false).dataMisfit + regularisation(next);
+        const evaluation = evaluate(next, true, workspaces[spare]);
+        const misfit = evaluation.dataMisfit + regularisation(next);
         if (misfit < objective) {
-          accepted = { p: next, objective: misfit };
+          accepted = { p: next, objective: misfit, evaluation };
           lambda = Math.max(lambda / DAMPING_FACTOR, 1e-7);
           break;
         }
@@ -225,7 +229,8 @@ export function layeredInversion(picks: InversionPick[], start: InversionStart, 
     const decrease = (objective - accepted.objective) / objective;
     p = accepted.p;
     objective = accepted.objective;
-    current = evaluate(p, true);
+    current = accepted.evaluation;
+    spare = 1 - spare;
     iterations++;
     if (decrease < RELATIVE_STOP) { stopReason = 'misfit stopped falling'; break; }
   }
@@ -400,6 +405,8 @@ function normalEquations(rows: SparseRow[], residuals: Float64Array, rtr: Float6
   const gradient = new Float64Array(n);
   const keptIndex = new Int32Array(n);
   const keptValue = new Float64Array(n);
+  const marked = new Uint8Array(n);
+  const dense = new Float64Array(n);
   rows.forEach((row, i) => {
     const { index, value } = row;
     const r = residuals[i];
@@ -415,14 +422,28 @@ function normalEquations(rows: SparseRow[], residuals: Float64Array, rtr: Float6
       keptValue[kept++] = value[a];
     }
     // The upper triangle only (the indices of a row are distinct, so each cell gets one product
-    // per row, in row order, as the full square would); mirrored below at the end.
+    // per row, in row order, as the full square would); mirrored below at the end. The kept
+    // entries are put in index order first, through a mark per unknown.
+    let low = n;
+    let high = -1;
     for (let a = 0; a < kept; a++) {
       const ia = keptIndex[a];
+      marked[ia] = 1;
+      dense[ia] = keptValue[a];
+      if (ia < low) low = ia;
+      if (ia > high) high = ia;
+    }
+    let sorted = 0;
+    for (let j = low; j <= high; j++) {
+      if (marked[j] === 0) continue;
+      marked[j] = 0;
+      keptIndex[sorted] = j;
+      keptValue[sorted++] = dense[j];
+    }
+    for (let a = 0; a < kept; a++) {
+      const base = keptIndex[a] * n;
       const va = keptValue[a];
-      for (let b = a; b < kept; b++) {
-        const ib = keptIndex[b];
-        normal[ia < ib ? ia * n + ib : ib * n + ia] += va * keptValue[b];
-      }
+      for (let b = a; b < kept; b++) normal[base + keptIndex[b]] += va * keptValue[b];
     }
     if (shiftIndex >= 0) {
       // ∂t/∂shift = 1 for every pick.
