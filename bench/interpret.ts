@@ -74,6 +74,8 @@ const none = () => undefined;
 
 const picks = table.picks.length;
 process.stdout.write(`interpret() on ${picks} picks (96 channels, 25 sources); load average ${(await import('node:os')).loadavg().map((l) => l.toFixed(2)).join(' ')}\n`);
+// Warm-up: the first dozen runs are up to half again slower (compilation, heap growth).
+for (let i = 0; i < 12; i++) interpret(table, {}, new WarningLog());
 const full = measure('interpret() with the inversion', none, () => interpret(table, {}, new WarningLog()), 15);
 const off = measure('interpret() without the inversion', none, () => interpret(table, { inversion: false }, new WarningLog()), 15);
 const base = measure('floor: one least-squares line per source', none, floor, 200);
