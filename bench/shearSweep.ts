@@ -1,25 +1,51 @@
 /**
  * Sweep: S picking and site classes on SH records the tests' generator makes (test/picking/
- * shearRecord.ts: P first at 0.15-0.4 of the S, a ringing surface wave behind the S, unit Gaussian
- * noise; onsets from the independent forward model of test/reference), one polarity per shot,
- * over seeded random Vs profiles, Vp/Vs ratios, amplitudes, frequencies, noise and sampling.
- * For each line: median and 90th percentile S-pick error, picks on the P (nearer the P onset than
- * the S onset), unpicked traces; Vs30 from `interpret` against the true Vs30 (EN 1998-1 Eq. 3.1,
- * the deepest layer extended) and the classes against those of the true Vs30 (bounds of
- * ../shared/SITE-CLASSES.md, written out here). Not part of npm test.
- * Run: nice npx tsx bench/shearSweep.ts [lines] [first seed]
+ * shearRecord.ts: P first, a ringing surface wave behind the S, unit Gaussian noise; onsets from
+ * the independent forward model of test/reference), one record per shot, one polarity each, over
+ * seeded random lines. Not part of npm test.
+ *
+ * Two line sets:
+ * - wide (default): three-layer Vs profiles 130-1300 m/s, Vp/Vs 1.6-2.6, sampling 0.125, 0.25,
+ *   0.5 or 1 ms, S signal-to-noise 5-50 near the source (log-uniform), P 0.1-0.5 of the S, surface
+ *   wave 1-4 × the S at 0.85-0.95 of the top Vs, geophones 1-3 m apart, 24/48/72/96 channels, five
+ *   to seven shots (ends, inside, and off the ends by 1-10 spacings), each struck on a side drawn
+ *   at random (S polarity ±1);
+ * - classic (--classic): the 24-line set this sweep first measured (P/S 0.15-0.4, SNR 12/20/35,
+ *   0.25 or 0.5 ms, 48 channels at 1.5 or 2 m, six shots).
+ *
+ * For each line: median and 90th percentile S-pick error; picks on the P (nearer the P onset than
+ * the S onset; and, counted apart, within max(1 ms, 3 samples) of the P onset); picks on the
+ * surface wave (later than the S by over 2 ms and nearer the surface-wave onset than the S
+ * onset); late picks (over 5 ms after the S); unpicked traces. Vs30 from the interpretation
+ * against the true Vs30 (EN 1998-1 Eq. 3.1 over 30 m; ASCE 7 Eq. 20.4-1 over 30.48 m; the deepest
+ * layer extended) and the classes against those of the true Vs30 (bounds of
+ * ../shared/SITE-CLASSES.md, written out here); beside it the Vs30 the interpretation gives from
+ * the exact S onsets, which tells a picking failure from a layout the interpretation cannot
+ * resolve. With --cli the Vs30 and classes come from `hammerline interpret --wave S --json` on the
+ * SEG-2 records written by the test SEG-2 writer (the picks are then made twice: once here for
+ * the errors, once by the command) and the site's record list is checked.
+ *
+ * Run: nice npx tsx bench/shearSweep.ts [lines] [first seed] [--classic] [--cli]
+ * The seed ranges reported in DEVELOPERS.md: 1-60 (tuning) and 1001-1060 (validation).
  */
 import { WarningLog } from '../src/core/warnings.js';
 import { readFirstBreaks } from '../src/io/firstBreaksCsv.js';
 import { pickTableCsv } from '../src/io/pickTable.js';
+import { readSeg2 } from '../src/io/seg2/read.js';
 import { interpret } from '../src/interpret.js';
-import { pickShearRecord } from '../src/picking/pickShearRecord.js';
+import { main } from '../src/cli/main.js';
+import type { CliIo } from '../src/cli/io.js';
+import { pickRecords } from '../src/picking/pickRecords.js';
 import type { PickRow } from '../src/picking/recordPicks.js';
-import { seededNormal } from '../test/reference/layeredTravelTimes.js';
-import { shearShot, type ShearLine } from '../test/picking/shearRecord.js';
+import { shearShotSeg2 } from '../test/picking/shearRecord.js';
+import { classicSetup, wideSetup } from './shearLines.js';
 
-const count = Number(process.argv[2] ?? 24);
-const firstSeed = Number(process.argv[3] ?? 1);
+const flags = process.argv.slice(2).filter((a) => a.startsWith('--'));
+const numbers = process.argv.slice(2).filter((a) => !a.startsWith('--'));
+const count = Number(numbers[0] ?? 24);
+const firstSeed = Number(numbers[1] ?? 1);
+const classic = flags.includes('--classic');
+const viaCli = flags.includes('--cli');
 
 // Class bounds, m/s, "above lower, up to and including upper" (SITE-CLASSES.md).
 const ASCE716: [string, number][] = [['E', 182.88], ['D', 365.76], ['C', 762], ['B', 1524], ['A', Infinity]];
@@ -27,83 +53,106 @@ const ASCE722: [string, number][] = [['E', 152.4], ['DE', 213.36], ['D', 304.8],
 const EC8: [string, number][] = [['D', 180], ['C', 360], ['B', 800], ['A', Infinity]];
 const classOf = (table: [string, number][], v: number) => table.find(([, upper]) => v <= upper)![0];
 
-function uniform(random: () => number, low: number, high: number) {
-  return low + (high - low) * random();
+function cliVs30(files: Record<string, Uint8Array>): { vs30?: number; classes: string[]; records?: string[]; error?: string } {
+  let stdout = '';
+  let stderr = '';
+  const io: CliIo = {
+    stdout: (t) => { stdout += t; },
+    stderr: (t) => { stderr += t; },
+    readText: (path) => new TextDecoder('latin1').decode(files[path]),
+    readBytes: (path) => {
+      if (!(path in files)) throw Object.assign(new Error('not found'), { code: 'ENOENT' });
+      return files[path];
+    },
+    writeText: () => undefined,
+  };
+  const code = main(['interpret', ...Object.keys(files), '--wave', 'S', '--json', '--quiet'], io);
+  if (code !== 0 && stdout === '') return { classes: [], error: `exit ${code}: ${stderr.slice(0, 60)}` };
+  const doc = JSON.parse(stdout);
+  if (doc.site === undefined) return { classes: [], error: 'no site' };
+  return { vs30: doc.site.vs30_mps, classes: doc.site.classes.map((c: { class_by_velocity?: string; class: string }) => c.class_by_velocity ?? c.class), records: doc.site.records };
 }
 
-const totals = { errors: [] as number[], onP: 0, unpicked: 0, traces: 0, vs30: [] as number[], match: 0, classes: 0 };
-console.log('line | Vs profile (m/s over m) | P/S | snr | dt ms | median ms | p90 ms | on P | unpicked | Vs30 true | Vs30 got | error % | classes true | got');
+function libraryVs30(rows: PickRow[], name: string): { vs30?: number; classes: string[]; error?: string } {
+  try {
+    const log = new WarningLog();
+    const result = interpret(readFirstBreaks(pickTableCsv(rows, 'm', false), name, log, { wave: 'S' }), { wave: 'S' }, log);
+    return { vs30: result.site?.vs30, classes: result.site?.classes.map((c) => c.velocityClass ?? c.class) ?? [] };
+  } catch (error) {
+    return { classes: [], error: (error as Error).message.slice(0, 50) };
+  }
+}
+
+const percentile = (sorted: number[], q: number) => sorted[Math.floor(q * (sorted.length - 1))];
+const totals = { errors: [] as number[], onP: 0, nearP: 0, surface: 0, late: 0, unpicked: 0, traces: 0, vs30: [] as number[], oracle: [] as number[], lines: 0, within: 0, oracleWithin: 0, match: [0, 0, 0], cliRecords: 0 };
+console.log(`${classic ? 'classic' : 'wide'} set, seeds ${firstSeed}-${firstSeed + count - 1}${viaCli ? ', Vs30 through interpret --wave S' : ''}`);
+console.log('line | Vs profile (m/s over m) | layout | median ms | p90 ms | on P (near P) | surface | late | unpicked/traces | Vs30 true | exact onsets | got | error % | classes true | got');
 for (let n = 0; n < count; n++) {
   const seed = firstSeed + n;
-  const normal = seededNormal(9000 + seed);
-  const random = () => Math.min(0.999999, Math.max(0, 0.5 + normal() / 6));
-  const vs1 = uniform(random, 130, 260);
-  const vs2 = Math.min(650, vs1 * uniform(random, 1.5, 2.3));
-  const vs3 = Math.min(1300, vs2 * uniform(random, 1.7, 3));
-  const h1 = uniform(random, 2, 6);
-  const h2 = h1 + uniform(random, 5, 12);
-  const vs = [vs1, vs2, vs3];
-  const ratios = [uniform(random, 1.8, 2.6), uniform(random, 1.7, 2.4), uniform(random, 1.6, 2.1)];
-  const vp = vs.map((v, k) => v * ratios[k]);
-  for (let k = 1; k < 3; k++) vp[k] = Math.max(vp[k], 1.15 * vp[k - 1]);
-  const line: ShearLine = { surface: () => 50, interfaces: [() => 50 - h1, () => 50 - h2], vp, vs };
-  const pRatio = uniform(random, 0.15, 0.4);
-  // Cycled by seed, so that a line can be run again alone.
-  const k = seed - 1;
-  const snr = [12, 20, 35][k % 3];
-  const dt = k % 2 === 0 ? 0.00025 : 0.0005;
-  const spacing = [1.5, 1.5, 2][k % 3];
-  const receivers = Array.from({ length: 48 }, (_, i) => i * spacing);
-  const end = 47 * spacing;
-  const sources = [-4 * spacing, 0, end / 3 - spacing / 2, (2 * end) / 3 + spacing / 2, end, end + 4 * spacing];
-  const rows: PickRow[] = [];
-  const errors: number[] = [];
-  let onP = 0;
-  let unpicked = 0;
-  let traces = 0;
+  const setup = classic ? classicSetup(seed) : wideSetup(seed);
+  const { line, receivers, sources } = setup;
+  const [h1, h2] = setup.h;
+  const files: Record<string, Uint8Array> = {};
+  const truths: { p: number[]; s: number[]; surface: number[] }[] = [];
   sources.forEach((sx, s) => {
-    const shot = shearShot(line, sx, receivers, {
-      pRatio, snr, seed: seed * 100 + s, sampleInterval: dt, samples: Math.round(0.5 / dt), step: 0.25,
-      surfaceAmplitude: uniform(random, 1.5, 3), surfaceVelocity: uniform(random, 0.8, 0.92),
-      frequencies: [uniform(random, 70, 110), uniform(random, 35, 60), uniform(random, 15, 25)],
-    });
-    const { picks } = pickShearRecord(shot.traces);
-    picks.forEach((p, r) => {
-      rows.push({ sourceId: `R${s + 1}`, sourceX: sx, receiverX: receivers[r], time: p.time, confidence: p.confidence, status: p.status, file: `R${s + 1}.seg2`, trace: r + 1, wave: 'S' });
-      if (receivers[r] === sx) return;
+    const options = setup.shot(s);
+    const shot = shearShotSeg2(line, sx, receivers, options);
+    files[`sh${s + 1}.seg2`] = shot.bytes;
+    truths.push({ p: shot.pTimes, s: shot.sTimes, surface: receivers.map((rx) => Math.abs(rx - sx) / ((options.surfaceVelocity ?? 0.85) * line.vs[0])) });
+  });
+  const names = Object.keys(files);
+  // The picking of the command line: SEG-2 read, S records grouped by shot position, each picked.
+  const { rows } = pickRecords(names.map((f) => readSeg2(files[f], f)), { wave: 'S' });
+  const exactRows: PickRow[] = [];
+  const errors: number[] = [];
+  let onP = 0, nearP = 0, surface = 0, late = 0, unpicked = 0, traces = 0;
+  let row = 0;
+  sources.forEach((sx, s) => {
+    const truth = truths[s];
+    const dt = setup.shot(s).sampleInterval!;
+    receivers.forEach((rx, r) => {
+      const p = rows[row++];
+      exactRows.push({ ...p, time: truth.s[r], status: 'picked', confidence: 1 });
+      if (rx === sx) return;
       traces++;
       if (p.time === undefined) { unpicked++; return; }
-      errors.push(Math.abs(p.time - shot.sTimes[r]));
-      if (Math.abs(p.time - shot.pTimes[r]) < Math.abs(p.time - shot.sTimes[r])) onP++;
+      const error = p.time - truth.s[r];
+      errors.push(Math.abs(error));
+      if (Math.abs(p.time - truth.p[r]) < Math.abs(error)) onP++;
+      if (Math.abs(p.time - truth.p[r]) <= Math.max(1e-3, 3 * dt)) nearP++;
+      if (error > 2e-3 && Math.abs(p.time - truth.surface[r]) < error) surface++;
+      if (error > 5e-3) late++;
     });
   });
-  const average = (depth: number) => depth / (h1 / vs1 + (h2 - h1) / vs2 + (depth - h2) / vs3);
+  const average = (depth: number) => depth / (h1 / line.vs[0] + (h2 - h1) / line.vs[1] + (depth - h2) / line.vs[2]);
   // vs,30 over 30 m (EN 1998-1 Eq. 3.1); ASCE 7 averages the top 100 ft = 30.48 m (Eq. 20.4-1).
   const truth = average(30);
   const truthAsce = average(30.48);
-  let got: number | undefined;
-  let gotClasses: string[] = [];
-  try {
-    const log = new WarningLog();
-    const result = interpret(readFirstBreaks(pickTableCsv(rows, 'm', false), `line${seed}`, log, { wave: 'S' }), { wave: 'S' }, log);
-    got = result.site?.vs30;
-    gotClasses = result.site?.classes.map((c) => c.velocityClass ?? c.class) ?? [];
-  } catch (error) {
-    gotClasses = [`error: ${(error as Error).message.slice(0, 50)}`];
-  }
+  const got = viaCli ? cliVs30(files) : libraryVs30(rows, `line${seed}`);
+  const oracle = libraryVs30(exactRows, `line${seed}`);
   const trueClasses = [classOf(ASCE716, truthAsce), classOf(ASCE722, truthAsce), classOf(EC8, truth)];
   errors.sort((a, b) => a - b);
-  const median = errors[errors.length >> 1];
-  const p90 = errors[Math.floor(0.9 * (errors.length - 1))];
-  totals.errors.push(...errors);
-  totals.onP += onP;
-  totals.unpicked += unpicked;
-  totals.traces += traces;
-  if (got !== undefined) totals.vs30.push(Math.abs(got - truth) / truth);
-  totals.classes += 3;
-  totals.match += trueClasses.filter((c, k) => gotClasses[k] === c).length;
-  console.log([seed, `${vs.map((v) => v.toFixed(0)).join('/')} over ${h1.toFixed(1)}/${h2.toFixed(1)}`, pRatio.toFixed(2), snr, dt * 1e3, (median * 1e3).toFixed(2), (p90 * 1e3).toFixed(2), onP, unpicked, truth.toFixed(1), got?.toFixed(1) ?? '-', got === undefined ? '-' : ((100 * (got - truth)) / truth).toFixed(1), trueClasses.join(','), gotClasses.join(',')].join(' | '));
+  pushAll(totals.errors, errors);
+  totals.onP += onP; totals.nearP += nearP; totals.surface += surface; totals.late += late;
+  totals.unpicked += unpicked; totals.traces += traces; totals.lines++;
+  const relative = (v: number | undefined) => (v === undefined ? undefined : (v - truth) / truth);
+  const e = relative(got.vs30);
+  const eo = relative(oracle.vs30);
+  if (e !== undefined) totals.vs30.push(Math.abs(e));
+  if (eo !== undefined) totals.oracle.push(Math.abs(eo));
+  if (e !== undefined && Math.abs(e) <= 0.05) totals.within++;
+  if (eo !== undefined && Math.abs(eo) <= 0.05) totals.oracleWithin++;
+  trueClasses.forEach((c, k) => { if (got.classes[k] === c) totals.match[k]++; });
+  if ('records' in got && JSON.stringify(got.records) === JSON.stringify(names)) totals.cliRecords++;
+  console.log([seed, `${line.vs.map((v) => v.toFixed(0)).join('/')} over ${h1.toFixed(1)}/${h2.toFixed(1)}`, setup.summary,
+    (percentile(errors, 0.5) * 1e3).toFixed(2), (percentile(errors, 0.9) * 1e3).toFixed(2), `${onP} (${nearP})`, surface, late, `${unpicked}/${traces}`,
+    truth.toFixed(1), oracle.vs30?.toFixed(1) ?? oracle.error ?? '-', got.vs30?.toFixed(1) ?? got.error ?? '-', e === undefined ? '-' : (100 * e).toFixed(1),
+    trueClasses.join(','), got.classes.join(',')].join(' | '));
 }
+function pushAll(into: number[], from: number[]) { for (const v of from) into.push(v); }
 totals.errors.sort((a, b) => a - b);
 const vsErr = [...totals.vs30].sort((a, b) => a - b);
-console.log(`\nall: ${totals.errors.length} picks of ${totals.traces} traces, median error ${(totals.errors[totals.errors.length >> 1] * 1e3).toFixed(3)} ms, 90th percentile ${(totals.errors[Math.floor(0.9 * (totals.errors.length - 1))] * 1e3).toFixed(2)} ms, on P ${totals.onP}, unpicked ${totals.unpicked}; Vs30 error median ${(100 * vsErr[vsErr.length >> 1]).toFixed(1)} %, worst ${(100 * vsErr[vsErr.length - 1]).toFixed(1)} %, within 5 % on ${vsErr.filter((e) => e <= 0.05).length} of ${count} lines (${count - vsErr.length} without Vs30); classes matching ${totals.match} of ${totals.classes}`);
+console.log(`\nall: ${totals.errors.length} picks of ${totals.traces} traces, median error ${(percentile(totals.errors, 0.5) * 1e3).toFixed(3)} ms, 90th percentile ${(percentile(totals.errors, 0.9) * 1e3).toFixed(2)} ms, `
+  + `on P ${totals.onP} (within max(1 ms, 3 samples) of the P onset ${totals.nearP}), on the surface wave ${totals.surface}, later than 5 ms ${totals.late}, unpicked ${totals.unpicked}`);
+console.log(`Vs30 within 5 % on ${totals.within} of ${totals.lines} lines (from the exact onsets ${totals.oracleWithin}); error median ${(100 * vsErr[vsErr.length >> 1]).toFixed(1)} %, worst ${(100 * vsErr[vsErr.length - 1]).toFixed(1)} %, ${totals.lines - vsErr.length} without Vs30; `
+  + `classes right: ASCE 7-16 ${totals.match[0]}, ASCE 7-22 ${totals.match[1]}, EN 1998-1 ${totals.match[2]} of ${totals.lines}${viaCli ? `; site records named on ${totals.cliRecords}` : ''}`);

@@ -74,7 +74,8 @@ export function pickShearRecord(traces: PickTrace[], options: PickOptions = {}, 
     const pick = shearOnset(t, search[i], options);
     return onP(pick, i) ? { confidence: 0, status: 'no clear onset' as const, snr: pick.snr } : pick;
   });
-  const picks = checkRecord(traces, initial, (i, predicted, halfWidth) => {
+  const bounded = shearMoveoutBound(traces, initial, raw, curve, search, options);
+  const picks = checkRecord(traces, bounded, (i, predicted, halfWidth) => {
     const p = search[i];
     return pickNear(traces[i], predicted, halfWidth, options, p === undefined ? -Infinity : SHEAR_AFTER_P * p);
   });
@@ -99,10 +100,17 @@ export const SHEAR_TO_P_NEAR = 1.5;
  * and what follows them the surface wave. The others lose their time.
  */
 export function confirmedP(traces: PickTrace[], firstBreaks: TracePick[], options: PickOptions = {}): TracePick[] {
-  const after = traces.map((t, i) => (firstBreaks[i].time !== undefined && t.offset !== 0 ? shearAfter(t, firstBreaks[i].time!, options) : undefined));
+  const after = traces.map((t, i) => {
+    const time = firstBreaks[i].time;
+    if (time === undefined || t.offset === 0 || time <= 0) return undefined;
+    const s = shearAfter(t, time, options);
+    // The first S comes at least √2 times as late as the first P (SHEAR_AFTER_P): a stronger
+    // arrival sooner than SHEAR_TO_P_LEAST times the first break is not the S after a P.
+    return s !== undefined && s >= SHEAR_TO_P_LEAST * time ? s : undefined;
+  });
   const ratios: number[] = [];
   for (const side of [-1, 1]) {
-    traces.map((t, i) => ({ x: Math.abs(t.offset), i })).filter(({ i }) => Math.sign(traces[i].offset) === side && after[i] !== undefined && firstBreaks[i].time! > 0)
+    traces.map((t, i) => ({ x: Math.abs(t.offset), i })).filter(({ i }) => Math.sign(traces[i].offset) === side && after[i] !== undefined)
       .sort((a, b) => a.x - b.x).slice(0, 6).forEach(({ i }) => ratios.push(after[i]! / firstBreaks[i].time!));
   }
   ratios.sort((a, b) => a - b);
@@ -111,9 +119,19 @@ export function confirmedP(traces: PickTrace[], firstBreaks: TracePick[], option
 }
 
 /**
+ * Least ratio of an S onset to the first break for the first break to be taken as its P: √2
+ * (Vp/Vs ≥ √2 for Poisson's ratio ≥ 0) less 5 % for the error of the two picks. A surface wave
+ * behind a first break that is itself the S comes at 1.05 to 1.25 times its time where the S
+ * is the direct wave (surface waves at 0.8 to 0.95 of the top-layer Vs, common practice).
+ */
+export const SHEAR_TO_P_LEAST = 1.35;
+
+/**
  * The first breaks of one side (sorted by offset) that continue a concave first-arrival curve
  * outwards from the source: each is kept when it is no later, within max(1 ms, 3 samples, a fifth
- * of the time), than the line through the last four kept ones (Theil-Sen) extended to it. A P
+ * of the time), than the line through the last four kept ones (Theil-Sen) extended to it, nor
+ * than 1.2 times the median time over offset of those four (a concave curve through the shot has
+ * a time over offset that only falls outwards), and no earlier than the last kept one. A P
  * curve only bends towards faster slopes (deeper, faster refractors); first breaks that jump later
  * than the extension are not the P but the S (1.4 to 3 times as late) where the P is lost in the
  * noise: a single one is passed over, and after three in a row the rest are left out.
@@ -123,6 +141,9 @@ function outwardConcave<T extends { x: number; time: number }>(members: T[], dt:
   const tolerance = Math.max(1e-3, 3 * dt);
   let late = 0;
   for (const m of members) {
+    // A first-arrival curve does not come earlier at a farther geophone (apparent velocities are
+    // positive): a first break earlier than the last kept one is noise taken for a weak P.
+    if (kept.length > 0 && m.time < kept[kept.length - 1].time - tolerance) continue;
     if (kept.length >= 2) {
       const last = kept.slice(-4);
       const slopes: number[] = [];
@@ -131,7 +152,9 @@ function outwardConcave<T extends { x: number; time: number }>(members: T[], dt:
       const slope = slopes.length > 0 ? slopes[slopes.length >> 1] : 0;
       const end = kept[kept.length - 1];
       const extended = end.time + slope * (m.x - end.x);
-      if (m.time > extended + Math.max(tolerance, 0.2 * extended)) {
+      // Through the shot (t = 0 at offset 0) a concave curve's time over offset only falls outwards.
+      const slowness = last.map((k) => k.time / k.x).sort((p, q) => p - q)[last.length >> 1];
+      if (m.time > extended + Math.max(tolerance, 0.2 * extended) || m.time > 1.2 * slowness * m.x + tolerance) {
         if (++late >= 3) break;
         continue;
       }
@@ -140,4 +163,83 @@ function outwardConcave<T extends { x: number; time: number }>(members: T[], dt:
     kept.push(m);
   }
   return kept;
+}
+
+/**
+ * Share of its own extended time by which an S pick may come later than the S line of the picks
+ * nearer the source: a first-arrival curve is concave (the lower envelope of direct and head-wave
+ * lines; Telford et al. 1990, ch. 4), so it never rises above the extension of a chord nearer the
+ * source but by the picking error, while a surface wave slower than the top layer's S (0.8 to
+ * 0.95 of it, common practice) comes 5 to 25 % later than the direct S, more beyond the crossover
+ * where the S bends earlier.
+ */
+export const SHEAR_LATE = 0.03;
+
+/**
+ * Share of its extended time by which an S onset may come earlier than the S line of the picks
+ * nearer the source (the curve bends towards faster slopes at a crossover) when a late pick is
+ * replaced; a P comes at most 1/√2 ≈ 0.71 of the S time, so a replacement is never the P.
+ */
+export const SHEAR_BEND = 0.15;
+
+/**
+ * The S picks bounded by the record's own S moveout. Per side, outwards from the shot, each pick
+ * beyond the fourth is compared with the line through the last five kept picks (Theil-Sen; spikes
+ * against their neighbours, `localSpikes`, are judged but not kept)
+ * extended to it; a pick later than that by more than max(2 ms, 4 samples, SHEAR_LATE of the
+ * extended time) has passed the S onset and stopped on the slower surface wave. It is replaced by
+ * the trace's first break where that lies from SHEAR_BEND of the extended time before it to the
+ * tolerance after it (the first break is then the S and the P is lost in the noise: a P comes at most 1/√2 of the S time, far
+ * outside that span; the trace loses its P time), else by an AIC re-pick in that span (never earlier than
+ * SHEAR_AFTER_P times the P time; such a re-pick does not extend the line), else it is left
+ * `inconsistent`. Traces with no S onset of
+ * their own are tried the same way. `curve` and `search` are
+ * updated in place for the traces whose first break became the S.
+ */
+export function shearMoveoutBound(traces: PickTrace[], initial: TracePick[], firstBreaks: TracePick[], curve: (number | undefined)[], search: (number | undefined)[], options: PickOptions = {}): TracePick[] {
+  const picks = [...initial];
+  for (const side of [-1, 1]) {
+    const members = traces.map((t, i) => ({ x: Math.abs(t.offset), i })).filter(({ i }) => Math.sign(traces[i].offset) === side && picks[i].status !== 'dead')
+      .sort((a, b) => a.x - b.x);
+    const kept: { x: number; time: number }[] = [];
+    const replaced = new Set<number>();
+    // Spikes (as in the record check) do not shape the line that judges the others.
+    const timed = members.filter(({ i }) => picks[i].time !== undefined);
+    const spikes = new Set(localSpikes(timed.map((m) => m.x), timed.map(({ i }) => picks[i].time!), traces[members[0]?.i ?? 0].sampleInterval).map((k) => timed[k].i));
+    for (const { x, i } of members) {
+      // A trace with no onset of its own is looked at near the extension too.
+      const time = picks[i].time ?? Infinity;
+      if (kept.length >= 4 && x > kept[kept.length - 1].x) {
+        const last = kept.slice(-5);
+        const slopes: number[] = [];
+        for (let a = 0; a < last.length; a++) for (let b = a + 1; b < last.length; b++) if (last[b].x > last[a].x) slopes.push((last[b].time - last[a].time) / (last[b].x - last[a].x));
+        slopes.sort((p, q) => p - q);
+        const end = kept[kept.length - 1];
+        const extended = end.time + slopes[slopes.length >> 1] * (x - end.x);
+        const tolerance = Math.max(2e-3, 4 * traces[i].sampleInterval, SHEAR_LATE * extended);
+        // The S may come earlier than the extension (the curve bends at a crossover), never as
+        // early as its P (at most 1/√2 of the S time).
+        const earliest = extended - Math.max(tolerance, SHEAR_BEND * extended);
+        const within = (t: number) => t >= earliest && t <= extended + tolerance;
+        if (time > extended + tolerance) {
+          const own = firstBreaks[i].time;
+          if (own !== undefined && within(own)) {
+            picks[i] = { ...firstBreaks[i], status: 'repicked', confidence: firstBreaks[i].confidence / 2 };
+            curve[i] = undefined;
+            search[i] = undefined;
+          } else {
+            const p = search[i];
+            const again = pickNear(traces[i], (earliest + extended + tolerance) / 2, Math.max((extended + tolerance - earliest) / 2, 4e-3), options, p === undefined ? -Infinity : SHEAR_AFTER_P * p);
+            replaced.add(i);
+            picks[i] = again !== undefined && within(again.time!)
+              ? { ...again, status: 'repicked', confidence: again.confidence / 2 }
+              : picks[i].time === undefined ? picks[i] : { confidence: 0, status: 'inconsistent', snr: picks[i].snr };
+          }
+        }
+      }
+      // Re-picks made near the line do not extend it (they would only carry it on).
+      if (picks[i].time !== undefined && !spikes.has(i) && !replaced.has(i)) kept.push({ x, time: picks[i].time! });
+    }
+  }
+  return picks;
 }
