@@ -25,8 +25,12 @@ export function pMoveout(traces: PickTrace[], confirmed: TracePick[], raw: Trace
       .sort((a, b) => a.x - b.x);
     if (members.length < 6) continue;
     // Early spikes (noise taken for a weak P) first, as in the record check of the first breaks.
-    const spikes = new Set(localSpikes(members.map((m) => m.x), members.map((m) => curve[m.i]!), traces[members[0].i].sampleInterval));
-    const clean = outwardConcave(members.filter((_, k) => !spikes.has(k)).map((m) => ({ ...m, time: curve[m.i]! })), traces[members[0].i].sampleInterval);
+    // The concave run from the source first: where the P fades out with offset the first breaks
+    // beyond are the S, and they outnumber the P as neighbours in the spike test.
+    const dt = traces[members[0].i].sampleInterval;
+    const run = outwardConcave(members.map((m) => ({ ...m, time: curve[m.i]! })), dt);
+    const spikes = new Set(localSpikes(run.map((m) => m.x), run.map((m) => m.time), dt));
+    const clean = run.filter((_, k) => !spikes.has(k));
     if (clean.length < 6) continue;
     const fit = travelTimeFit(clean.map((m) => m.x), clean.map((m) => curve[m.i]!));
     if (fit === undefined) continue;
@@ -183,7 +187,9 @@ export const SHEAR_LATE = 0.03;
 export const SHEAR_BEND = 0.15;
 
 /**
- * The S picks bounded by the record's own S moveout. Per side, outwards from the shot, each pick
+ * The S picks bounded by the record's own S moveout. First, a pick later than the trace's first
+ * break by more than max(2 ms, 4 samples) but sooner than SHEAR_TO_P_LEAST times it is not the S
+ * after a P: the first break is the S there (replaced as below). Then per side, outwards from the shot, each pick
  * beyond the fourth is compared with the line through the last five kept picks (Theil-Sen; spikes
  * against their neighbours, `localSpikes`, are judged but not kept)
  * extended to it; a pick later than that by more than max(2 ms, 4 samples, SHEAR_LATE of the
@@ -198,6 +204,18 @@ export const SHEAR_BEND = 0.15;
  */
 export function shearMoveoutBound(traces: PickTrace[], initial: TracePick[], firstBreaks: TracePick[], curve: (number | undefined)[], search: (number | undefined)[], options: PickOptions = {}): TracePick[] {
   const picks = [...initial];
+  const asShear = (i: number) => {
+    picks[i] = { ...firstBreaks[i], status: 'repicked', confidence: firstBreaks[i].confidence / 2 };
+    curve[i] = undefined;
+    search[i] = undefined;
+  };
+  // An onset after the first break but sooner than SHEAR_TO_P_LEAST times it cannot be the S
+  // after a P there: the first break is the S, and the later onset the surface wave.
+  traces.forEach((t, i) => {
+    const own = firstBreaks[i].time;
+    const time = picks[i].time;
+    if (t.offset !== 0 && own !== undefined && own > 0 && time !== undefined && time > own + Math.max(2e-3, 4 * t.sampleInterval) && time < SHEAR_TO_P_LEAST * own) asShear(i);
+  });
   for (const side of [-1, 1]) {
     const members = traces.map((t, i) => ({ x: Math.abs(t.offset), i })).filter(({ i }) => Math.sign(traces[i].offset) === side && picks[i].status !== 'dead')
       .sort((a, b) => a.x - b.x);
@@ -216,20 +234,22 @@ export function shearMoveoutBound(traces: PickTrace[], initial: TracePick[], fir
         slopes.sort((p, q) => p - q);
         const end = kept[kept.length - 1];
         const extended = end.time + slopes[slopes.length >> 1] * (x - end.x);
-        const tolerance = Math.max(2e-3, 4 * traces[i].sampleInterval, SHEAR_LATE * extended);
-        // The S may come earlier than the extension (the curve bends at a crossover), never as
-        // early as its P (at most 1/√2 of the S time).
-        const earliest = extended - Math.max(tolerance, SHEAR_BEND * extended);
-        const within = (t: number) => t >= earliest && t <= extended + tolerance;
-        if (time > extended + tolerance) {
+        // A concave curve through the shot has a time over offset that only falls outwards: the
+        // median of the last five, times this offset, bounds the S from above.
+        const bound = last.map((k) => k.time / k.x).sort((p, q) => p - q)[last.length >> 1] * x;
+        const tolerance = Math.max(2e-3, 4 * traces[i].sampleInterval, SHEAR_LATE * bound);
+        // The S may come earlier than the line (it bends at a crossover), never as early as its P
+        // (at most 1/√2 of the S time).
+        const line = Math.min(extended, bound);
+        const earliest = line - Math.max(tolerance, SHEAR_BEND * line);
+        const latest = bound + tolerance;
+        const within = (t: number) => t >= earliest && t <= latest;
+        if (time > latest) {
           const own = firstBreaks[i].time;
-          if (own !== undefined && within(own)) {
-            picks[i] = { ...firstBreaks[i], status: 'repicked', confidence: firstBreaks[i].confidence / 2 };
-            curve[i] = undefined;
-            search[i] = undefined;
-          } else {
+          if (own !== undefined && within(own)) asShear(i);
+          else {
             const p = search[i];
-            const again = pickNear(traces[i], (earliest + extended + tolerance) / 2, Math.max((extended + tolerance - earliest) / 2, 4e-3), options, p === undefined ? -Infinity : SHEAR_AFTER_P * p);
+            const again = pickNear(traces[i], (earliest + latest) / 2, Math.max((latest - earliest) / 2, 4e-3), options, p === undefined ? -Infinity : SHEAR_AFTER_P * p);
             replaced.add(i);
             picks[i] = again !== undefined && within(again.time!)
               ? { ...again, status: 'repicked', confidence: again.confidence / 2 }
