@@ -35,10 +35,26 @@ export function pMoveout(traces: PickTrace[], confirmed: TracePick[], raw: Trace
     const fit = travelTimeFit(clean.map((m) => m.x), clean.map((m) => curve[m.i]!));
     if (fit === undefined) continue;
     const reach = clean[clean.length - 1].x;
+    const predict = (x: number) => Math.max(0, minOf(fit.segments.map((segment) => segment.intercept + segment.slope * x)));
+    // Nearer the source than the first P kept, the first breaks not taken as P are the S (the P
+    // missed) or noise, later than the P moveout or on it: where most of them come well before it,
+    // the moveout is not that of the first arrival, and the first breaks it rests on are S ahead
+    // of a surface wave. The side then has no P.
+    const nearer = traces.map((t, i) => ({ t, i })).filter(({ t, i }) => Math.sign(t.offset) === side && Math.abs(t.offset) < clean[0].x && confirmed[i].time === undefined && timeOf(raw[i], i) !== undefined);
+    const early = nearer.filter(({ t, i }) => {
+      const expected = predict(Math.abs(t.offset));
+      return raw[i].time! < expected - Math.max(2e-3, 4 * dt);
+    }).length;
+    if (early >= 2 && 2 * early >= nearer.length) {
+      traces.forEach((t, i) => {
+        if (Math.sign(t.offset) === side) curve[i] = search[i] = undefined;
+      });
+      continue;
+    }
     traces.forEach((t, i) => {
       if (Math.sign(t.offset) !== side) return;
       const x = Math.abs(t.offset);
-      curve[i] = Math.max(0, minOf(fit.segments.map((segment) => segment.intercept + segment.slope * x)));
+      curve[i] = predict(x);
       const own = timeOf(raw[i], i);
       search[i] = x <= reach || own === undefined ? curve[i] : Math.min(curve[i]!, own);
     });
@@ -192,8 +208,10 @@ export const SHEAR_BEND = 0.15;
  * after a P: the first break is the S there (replaced as below). Then per side, outwards from the shot, each pick
  * beyond the fourth is compared with the line through the last five kept picks (Theil-Sen; spikes
  * against their neighbours, `localSpikes`, are judged but not kept)
- * extended to it; a pick later than that by more than max(2 ms, 4 samples, SHEAR_LATE of the
- * extended time) has passed the S onset and stopped on the slower surface wave. It is replaced by
+ * extended to it (by twice the tolerance) and with the median time over offset of those five
+ * times its offset (a concave curve through the shot has a time over offset that only falls
+ * outwards); a pick later than the lower of the two by more than the tolerance, max(2 ms,
+ * 4 samples, SHEAR_LATE of the time), has passed the S onset and stopped on the slower surface wave. It is replaced by
  * the trace's first break where that lies from SHEAR_BEND of the extended time before it to the
  * tolerance after it (the first break is then the S and the P is lost in the noise: a P comes at most 1/√2 of the S time, far
  * outside that span; the trace loses its P time), else by an AIC re-pick in that span (never earlier than

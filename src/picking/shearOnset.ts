@@ -12,10 +12,10 @@ export const SHEAR_AFTER_P = 1.3;
 /**
  * Amplitude jump that marks the S onset: the short-window RMS must exceed this multiple of the
  * largest short-window RMS since the P arrival. On horizontal geophones facing an SH source the P
- * arrives at about 0.15 to 0.4 of the S amplitude (common practice), so the S is 2.5 times the P
- * or more; 1.8 leaves room for the P coda and noise adding to the S.
+ * arrives at about 0.1 to 0.5 of the S amplitude (common practice), so the S is twice the P or
+ * more; 1.65 leaves room for the P coda and noise adding to the S.
  */
-export const SHEAR_JUMP = 1.8;
+export const SHEAR_JUMP = 1.65;
 
 /**
  * The S-wave onset on one trace of an SH record, after its P arrival:
@@ -87,19 +87,25 @@ export function peakBetween(t: PickTrace, from: number, to: number): number {
 
 /**
  * Whether a first break is the weaker P ahead of the S: an S onset is found after it
- * (`shearOnset`) and the S peak over three STA windows is at least twice the first break's peak
- * over the same span (or up to the S, if sooner). On SH records the P is 0.15 to 0.4 of the S
- * (common practice), so a first break that is not followed by an arrival twice as strong is
- * taken to be the S itself, its P lost in the noise.
+ * (`shearOnset`) and the S peak over three STA windows is at least SHEAR_OVER_P times the first
+ * break's peak over the same span (or up to the S, if sooner); a first break not followed by an
+ * arrival that much stronger is taken to be the S itself, its P lost in the noise.
  */
 export function precedesShear(t: PickTrace, firstBreak: number, options: PickOptions = {}): boolean {
   return shearAfter(t, firstBreak, options) !== undefined;
 }
+
+/**
+ * Least ratio of the S peak to the first break's peak for the first break to be taken as a P: on
+ * SH records the P comes at 0.1 to 0.5 of the S (common practice), so the S is twice the P or
+ * more; 1.5 leaves room for noise on both peaks.
+ */
+export const SHEAR_OVER_P = 1.5;
 
 /** The S onset by which `precedesShear` shows a first break to be a P (seconds after the shot), or undefined. */
 export function shearAfter(t: PickTrace, firstBreak: number, options: PickOptions = {}): number | undefined {
   const s = shearOnset(t, firstBreak, options);
   if (s.time === undefined) return undefined;
   const span = 3 * windows(t, options).short * t.sampleInterval;
-  return peakBetween(t, s.time, s.time + span) >= 2 * peakBetween(t, firstBreak, Math.min(s.time, firstBreak + span)) ? s.time : undefined;
+  return peakBetween(t, s.time, s.time + span) >= SHEAR_OVER_P * peakBetween(t, firstBreak, Math.min(s.time, firstBreak + span)) ? s.time : undefined;
 }

@@ -80,3 +80,31 @@ describe('hammerline interpret --wave S on SH records', () => {
     expect(Math.abs(JSON.parse(stdout).layers[0].velocity_mps - 330) / 330).toBeLessThan(0.1);
   });
 });
+
+describe('hammerline interpret --wave S where the P fades out with offset under a strong surface wave', () => {
+  // "5 m @ 180, 9 m @ 340, then 760 m/s": Vs30 = 30 / (5/180 + 9/340 + 16/760) = 30 / 0.075301
+  // = 398.4 m/s (EN 1998-1 Eq. 3.1 and ASCE 7-16 Eq. 20.4-1, worked by hand); classes ASCE 7-16 C
+  // (365.76 to 762 m/s, Table 20.3-1), ASCE 7-22 CD (304.8 to 441.96 m/s, Table 20.2-1),
+  // EN 1998-1:2004 B (360 to 800 m/s, Table 3.1), each at least 5 % from its bounds. P at a quarter
+  // of the S and S signal-to-noise 12 near the source: the P is lost in the noise on the far traces,
+  // where a surface wave 2.5 times the S at 0.85 of the top-layer Vs follows the S first breaks.
+  const fading: ShearLine = { surface: () => 50, interfaces: [() => 45, () => 36], vp: [360, 640, 1500], vs: [180, 340, 760] };
+  const files: Record<string, Uint8Array> = {};
+  sources.forEach((sx, s) => {
+    files[`fade${s + 1}.seg2`] = shearShotSeg2(fading, sx, receivers, { pRatio: 0.25, snr: 12, seed: 700 + s, sampleInterval: 0.0005, samples: 1000, step: 0.25, surfaceAmplitude: 2.5, surfaceVelocity: 0.85, frequencies: [90, 45, 20] }).bytes;
+  });
+  const names = Object.keys(files);
+
+  it('interpret --wave S --json gives Vs30 within 5 % of 398.4 m/s, classes C, CD and B, and names the records', () => {
+    const { code, stdout } = run(['interpret', ...names, '--wave', 'S', '--json', '--quiet'], files);
+    expect(code).toBe(0);
+    const doc = JSON.parse(stdout);
+    // Issue 14: Vs30 within 5 % and the true class under each standard.
+    expect(Math.abs(doc.site.vs30_mps - 398.4) / 398.4).toBeLessThanOrEqual(0.05);
+    const classOf = (standard: string) => doc.site.classes.find((c: { standard: string }) => c.standard === standard).class;
+    expect(classOf('ASCE 7-16')).toBe('C');
+    expect(classOf('ASCE 7-22')).toBe('CD');
+    expect(classOf('EN 1998-1:2004')).toBe('B');
+    expect(doc.site.records).toEqual(names);
+  });
+});
