@@ -37,7 +37,8 @@ export function pMoveout(traces: PickTrace[], confirmed: TracePick[], raw: Trace
     const reach = clean[clean.length - 1].x;
     const predict = (x: number) => Math.max(0, minOf(fit.segments.map((segment) => segment.intercept + segment.slope * x)));
     // Nearer the source than the first P kept, the first breaks not taken as P are the S (the P
-    // missed) or noise, later than the P moveout or on it: where most of them come well before it,
+    // missed) or noise, later than the P moveout or on it: where half of them (three at least)
+    // come well before it,
     // the moveout is not that of the first arrival, and the first breaks it rests on are S ahead
     // of a surface wave. The side then has no P.
     const nearer = traces.map((t, i) => ({ t, i })).filter(({ t, i }) => Math.sign(t.offset) === side && Math.abs(t.offset) < clean[0].x && confirmed[i].time === undefined && timeOf(raw[i], i) !== undefined);
@@ -45,7 +46,7 @@ export function pMoveout(traces: PickTrace[], confirmed: TracePick[], raw: Trace
       const expected = predict(Math.abs(t.offset));
       return raw[i].time! < expected - Math.max(2e-3, 4 * dt);
     }).length;
-    if (early >= 2 && 2 * early >= nearer.length) {
+    if (early >= 3 && 2 * early >= nearer.length) {
       traces.forEach((t, i) => {
         if (Math.sign(t.offset) === side) curve[i] = search[i] = undefined;
       });
