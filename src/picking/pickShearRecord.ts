@@ -24,9 +24,9 @@ export function pMoveout(traces: PickTrace[], confirmed: TracePick[], raw: Trace
     const members = traces.map((t, i) => ({ x: Math.abs(t.offset), i })).filter(({ i }) => Math.sign(traces[i].offset) === side && curve[i] !== undefined)
       .sort((a, b) => a.x - b.x);
     if (members.length < 6) continue;
-    // Early spikes (noise taken for a weak P) first, as in the record check of the first breaks.
-    // The concave run from the source first: where the P fades out with offset the first breaks
-    // beyond are the S, and they outnumber the P as neighbours in the spike test.
+    // The concave run from the source first, then early spikes (noise taken for a weak P) as in
+    // the record check of the first breaks: where the P fades out with offset the first breaks
+    // beyond are the S, and they would outnumber the P as neighbours in the spike test.
     const dt = traces[members[0].i].sampleInterval;
     const run = outwardConcave(members.map((m) => ({ ...m, time: curve[m.i]! })), dt);
     const spikes = new Set(localSpikes(run.map((m) => m.x), run.map((m) => m.time), dt));
@@ -38,9 +38,8 @@ export function pMoveout(traces: PickTrace[], confirmed: TracePick[], raw: Trace
     const predict = (x: number) => Math.max(0, minOf(fit.segments.map((segment) => segment.intercept + segment.slope * x)));
     // Nearer the source than the first P kept, the first breaks not taken as P are the S (the P
     // missed) or noise, later than the P moveout or on it: where half of them (three at least)
-    // come well before it,
-    // the moveout is not that of the first arrival, and the first breaks it rests on are S ahead
-    // of a surface wave. The side then has no P.
+    // come well before it, the moveout is not that of the first arrival, and the first breaks it
+    // rests on are S ahead of a surface wave. The side then has no P.
     const nearer = traces.map((t, i) => ({ t, i })).filter(({ t, i }) => Math.sign(t.offset) === side && Math.abs(t.offset) < clean[0].x && confirmed[i].time === undefined && timeOf(raw[i], i) !== undefined);
     const early = nearer.filter(({ t, i }) => {
       const expected = predict(Math.abs(t.offset));
@@ -206,20 +205,19 @@ export const SHEAR_BEND = 0.15;
 /**
  * The S picks bounded by the record's own S moveout. First, a pick later than the trace's first
  * break by more than max(2 ms, 4 samples) but sooner than SHEAR_TO_P_LEAST times it is not the S
- * after a P: the first break is the S there (replaced as below). Then per side, outwards from the shot, each pick
- * beyond the fourth is compared with the line through the last five kept picks (Theil-Sen; spikes
- * against their neighbours, `localSpikes`, are judged but not kept)
- * extended to it (by twice the tolerance) and with the median time over offset of those five
- * times its offset (a concave curve through the shot has a time over offset that only falls
- * outwards); a pick later than the lower of the two by more than the tolerance, max(2 ms,
- * 4 samples, SHEAR_LATE of the time), has passed the S onset and stopped on the slower surface wave. It is replaced by
- * the trace's first break where that lies from SHEAR_BEND of the extended time before it to the
- * tolerance after it (the first break is then the S and the P is lost in the noise: a P comes at most 1/√2 of the S time, far
- * outside that span; the trace loses its P time), else by an AIC re-pick in that span (never earlier than
- * SHEAR_AFTER_P times the P time; such a re-pick does not extend the line), else it is left
- * `inconsistent`. Traces with no S onset of
- * their own are tried the same way. `curve` and `search` are
- * updated in place for the traces whose first break became the S.
+ * after a P: the first break is the S there (replaced as below). Then per side, outwards from the
+ * shot, each pick beyond the fourth is bounded by the median time over offset of the last five
+ * kept picks times its offset (a concave curve through the shot has a time over offset that only
+ * falls outwards; spikes against their neighbours, `localSpikes`, are judged but not kept). A
+ * pick later than that bound by more than the tolerance, max(2 ms, 4 samples, SHEAR_LATE of the
+ * time), has passed the S onset and stopped on the slower surface wave. It is replaced by the
+ * trace's first break where that lies between SHEAR_BEND of the time before the lower of the bound
+ * and the Theil-Sen line of those five extended, and the bound plus the tolerance (the first break is then the S and the P is lost in the noise: a P comes at
+ * most 1/√2 of the S time, outside that span; the trace loses its P time), else by an AIC re-pick
+ * in that span (never earlier than SHEAR_AFTER_P times the P time; such a re-pick does not extend
+ * the line), else it is left `inconsistent`. Traces with no S onset of their own are tried the
+ * same way. `curve` and `search` are updated in place for the traces whose first break became
+ * the S.
  */
 export function shearMoveoutBound(traces: PickTrace[], initial: TracePick[], firstBreaks: TracePick[], curve: (number | undefined)[], search: (number | undefined)[], options: PickOptions = {}): TracePick[] {
   const picks = [...initial];

@@ -141,3 +141,34 @@ describe('pickShearRecord where the P refracts at a shallow water table', () => 
     expect(errors.length).toBeGreaterThanOrEqual(0.9 * 282);
   });
 });
+
+describe('pickShearRecord where the P is half the S', () => {
+  // P at 0.48 of the S (SH records show 0.1 to 0.5, common practice): the S onset is then only
+  // about twice the P and its coda, and the first breaks are still the P.
+  const strongP: ShearLine = { surface: () => 50, interfaces: [() => 46, () => 35], vp: [380, 510, 1450], vs: [155, 270, 740] };
+  const near = Array.from({ length: 64 }, (_, i) => i);
+  const sources = [-7, 0, 31.5, 63, 67];
+
+  it('pickShearRecord picks the S after a P half as strong: none on the P, median within 1 ms, nine tenths picked', async () => {
+    const { pickShearRecord } = await import('../../src/picking/pickShearRecord.js');
+    const { shearShot } = await import('./shearRecord.js');
+    const errors: number[] = [];
+    let onP = 0;
+    let traces = 0;
+    sources.forEach((sx, s) => {
+      const shot = shearShot(strongP, sx, near, { pRatio: 0.48, snr: 15, seed: 950 + s, polarity: -1, sampleInterval: 0.000125, samples: 4000, step: 0.25, surfaceAmplitude: 1.8, surfaceVelocity: 0.92 });
+      pickShearRecord(shot.traces).picks.forEach((p, r) => {
+        if (shot.traces[r].offset === 0) return;
+        traces++;
+        if (p.time === undefined) return;
+        errors.push(Math.abs(p.time - shot.sTimes[r]));
+        if (Math.abs(p.time - shot.pTimes[r]) < Math.abs(p.time - shot.sTimes[r])) onP++;
+      });
+    });
+    errors.sort((a, b) => a - b);
+    expect(onP).toBe(0);
+    // Issue 14: median within 1 ms; at most a tenth unpicked.
+    expect(errors[errors.length >> 1]).toBeLessThanOrEqual(1e-3);
+    expect(errors.length).toBeGreaterThanOrEqual(0.9 * traces);
+  });
+});
