@@ -4,6 +4,7 @@ import { depthAt, pointsFromDelays } from '../../src/depth/delayProfile.js';
 import { layerThickness } from '../../src/depth/interceptTime.js';
 import { plusMinus } from '../../src/depth/plusMinus.js';
 import { grm } from '../../src/depth/grm.js';
+import { hiddenLayerLimit } from '../../src/depth/hiddenLayer.js';
 import { reciprocalChecks, reciprocalTolerance } from '../../src/depth/reciprocal.js';
 import { WarningLog } from '../../src/core/warnings.js';
 import type { BranchFit } from '../../src/core/types.js';
@@ -240,5 +241,36 @@ describe('reciprocalChecks', () => {
     // A reverse source beyond the reach of A's branch is not paired.
     const far = branch('C', 60, 'reverse', xs.filter((x) => x > 10), (x) => 5e-3 + (60 - x) / 1500);
     expect(reciprocalChecks([a, far], 0.2e-3, new WarningLog())).toHaveLength(0);
+  });
+});
+
+describe('hiddenLayerLimit (Soske 1959)', () => {
+  it('hiddenLayerLimit(500 over 2500 m/s, intercept 20 ms, hidden layer at 1200 m/s): the three lines meet at one offset, and the depth it hides', () => {
+    // The thickest hidden layer is the one whose head wave just touches the first arrivals: the
+    // direct wave, its head wave and the refractor's all meet at x* = t3 / (1/V1 − 1/V3) = 12.5 m.
+    // Head-wave intercepts from Telford et al. (1990), §4.2 (2 h cos θ / V summed over the layers above).
+    const [v1, v2, v3] = [500, 1200, 2500];
+    const limit = hiddenLayerLimit(2, v1, v3, 0, 0.02, v2)!;
+    expect(limit.refractor).toBe(2);
+    expect(limit.hiddenVelocity).toBe(1200);
+    const cos = (a: number, b: number) => Math.sqrt(1 - (a / b) ** 2);
+    const crossing = 0.02 / (1 / v1 - 1 / v3);
+    expect(crossing).toBeCloseTo(12.5, 9);
+    // h1 from the hidden layer's line passing through the crossing; h2 = the limit.
+    const h1 = (crossing * (1 / v1 - 1 / v2) * v1) / (2 * cos(v1, v2));
+    const t2 = (2 * h1 * cos(v1, v2)) / v1;
+    const t3 = (2 * h1 * cos(v1, v3)) / v1 + (2 * limit.maxThickness * cos(v2, v3)) / v2;
+    expect(t3).toBeCloseTo(0.02, 12);
+    expect(t2 + crossing / v2).toBeCloseTo(crossing / v1, 12);
+    // Without the hidden layer the refractor is at t3 V1 / (2 cos θ13): the true depth h1 + h2 is deeper by the underestimate.
+    expect(limit.depthUnderestimate).toBeCloseTo(h1 + limit.maxThickness - (0.02 * v1) / (2 * cos(v1, v3)), 12);
+    expect(limit.depthUnderestimate).toBeGreaterThan(0);
+  });
+
+  it('hiddenLayerLimit needs V1 < V2 < V3 and lines that cross beyond the source', () => {
+    expect(hiddenLayerLimit(1, 500, 2500, 0, 0.02, 400)).toBeUndefined();
+    expect(hiddenLayerLimit(1, 500, 2500, 0, 0.02, 2600)).toBeUndefined();
+    expect(hiddenLayerLimit(1, 500, 2500, 0.02, 0.02, 1200)).toBeUndefined();
+    expect(hiddenLayerLimit(1, 500, 2500, 0.005, 0.02, 1200)).toBeDefined();
   });
 });
