@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { assignLayers, layerVelocities } from '../../src/fit/layers.js';
 import { WarningLog } from '../../src/core/warnings.js';
 import type { BranchFit, Segment, Side } from '../../src/core/types.js';
+import { headWaveTime, type PlaneModel } from '../reference/planeLayerRays.js';
 
 // layerVelocities and assignLayers on branch fits built by hand, so each formula is checked on its
 // own, against closed forms worked by hand beside each check:
@@ -162,6 +163,37 @@ describe('layerVelocities on hand-built branch fits', () => {
     expect(layers[2].velocity).toBeCloseTo(3000, 6);
     expect(layers[2].dipDeg!).toBeCloseTo(5, 8);
     expect(layers[2].reversed).toBe(true);
+  });
+
+  it('layerVelocities solves the second of two reversed dipping refractors through the first (5° over 18°), from ray-traced apparent slownesses', () => {
+    // 600 over 1500 m/s dipping 5°, over 4000 m/s dipping 18° (invented); head-wave times traced ray
+    // by ray in test/reference/planeLayerRays.ts (Telford et al. 1990, §4.3; no formula of the
+    // program): two receivers on each straight branch give its apparent slowness exactly.
+    const model: PlaneModel = { depthAtZero: [6, 20], dipDeg: [5, 18], velocities: [600, 1500, 4000] };
+    // Slope of time against offset |x − source| (signed: the reverse branch of the 18° refractor
+    // slopes down, −4.08e-5 s/m, as it climbs towards −x faster than the offset grows).
+    const slope = (m: number, source: number, [a, b]: [number, number]) => {
+      const ta = headWaveTime(model, m, source, a);
+      const tb = headWaveTime(model, m, source, b);
+      if (ta === undefined || tb === undefined) throw new Error(`no head wave from interface ${m}`);
+      return (tb - ta) / (Math.abs(b - source) - Math.abs(a - source));
+    };
+    const fits = [['S1', 0, 'forward', [70, 90]], ['S2', 200, 'reverse', [130, 110]]].map(([id, x0, side, at]) => {
+      const towards = side === 'forward' ? 1 : -1;
+      const picks = [1, 2, 3, 4, 5, 6].map((d) => ({ x: (x0 as number) + towards * d, elev: 0, t: d / 600 }));
+      return fitOf(id as string, x0 as number, side as Side, picks, [
+        { layer: 1, end: 2, slowness: 1 / 600, intercept: 0 },
+        { layer: 2, start: 2, end: 4, slowness: slope(1, x0 as number, at as [number, number]), slownessSe: 1e-6, intercept: 0.01 },
+        { layer: 3, start: 4, slowness: slope(2, x0 as number, at as [number, number]), slownessSe: 1e-6, intercept: 0.03 },
+      ], 0);
+    });
+    const layers = layerVelocities(fits, 3, new WarningLog());
+    expect(layers.map((l) => l.index)).toEqual([1, 2, 3]);
+    expect(layers[1].velocity / 1500).toBeCloseTo(1, 6);
+    expect(layers[1].dipDeg!).toBeCloseTo(5, 5);
+    expect(layers[2].velocity / 4000).toBeCloseTo(1, 6);
+    expect(layers[2].dipDeg!).toBeCloseTo(18, 5);
+    expect(layers[2].velocitySe).toBeGreaterThan(0);
   });
 
   it('layerVelocities takes the inverse-variance weighted mean of the segments on one side', () => {
