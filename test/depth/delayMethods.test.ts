@@ -146,6 +146,12 @@ describe('plusMinus (Hagedoorn 1959) on delay-time-model times', () => {
     pair.reverse.xs = pair.reverse.xs.slice(0, 20); // the reverse curve stops at x = 40 m
     pair.reverse.times = pair.reverse.times.slice(0, 20);
     expect(plusMinus(pair, 1)!.stations.map((s) => s.x)).toEqual(xs.slice(0, 20));
+    // A receiver the reverse source did not record (x = 20 m) is left out, not interpolated.
+    const gap = pairOf();
+    const at20 = gap.reverse.xs.indexOf(20);
+    gap.reverse.xs.splice(at20, 1);
+    gap.reverse.times.splice(at20, 1);
+    expect(plusMinus(gap, 1)!.stations.map((s) => s.x)).toEqual(xs.filter((x) => x !== 20));
     const short = pairOf();
     short.reverse.xs = [2, 4];
     short.reverse.times = short.reverse.times.slice(0, 2);
@@ -220,7 +226,8 @@ describe('reciprocalChecks', () => {
     // A at 0 shooting +x, B at 31 m (between geophones 30 and 32) shooting −x; t = 5 ms + x/1500,
     // the reverse branch 1.5 ms late: from A at B, 5 + 31/1.5 = 25.667 ms (interpolated), from B at A 27.167 ms.
     const a = branch('A', 0, 'forward', xs.slice(1), (x) => 5e-3 + x / 1500);
-    const b = branch('B', 31, 'reverse', xs.filter((x) => x < 31), (x) => 6.5e-3 + (31 - x) / 1500);
+    // The reverse branch's picks in offset order (descending x), as a branch holds them.
+    const b = branch('B', 31, 'reverse', xs.filter((x) => x < 31).reverse(), (x) => 6.5e-3 + (31 - x) / 1500);
     const log = new WarningLog();
     const [check] = reciprocalChecks([a, b], 0.2e-3, log);
     expect(check).toMatchObject({ sourceA: 'A', sourceB: 'B', tolerance: 1e-3, ok: false });
@@ -265,6 +272,10 @@ describe('hiddenLayerLimit (Soske 1959)', () => {
     // Without the hidden layer the refractor is at t3 V1 / (2 cos θ13): the true depth h1 + h2 is deeper by the underestimate.
     expect(limit.depthUnderestimate).toBeCloseTo(h1 + limit.maxThickness - (0.02 * v1) / (2 * cos(v1, v3)), 12);
     expect(limit.depthUnderestimate).toBeGreaterThan(0);
+    // Only the intercept difference counts: the layers above lumped into 5 ms change nothing.
+    const lumped = hiddenLayerLimit(2, v1, v3, 0.005, 0.025, v2)!;
+    expect(lumped.maxThickness).toBeCloseTo(limit.maxThickness, 12);
+    expect(lumped.depthUnderestimate).toBeCloseTo(limit.depthUnderestimate, 12);
   });
 
   it('hiddenLayerLimit needs V1 < V2 < V3 and lines that cross beyond the source', () => {
