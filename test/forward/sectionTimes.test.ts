@@ -61,8 +61,8 @@ describe('forwardCheck', () => {
   const layers: Layer[] = [{ index: 1, velocity: 500, velocitySe: 0, segmentCount: 2, reversed: true }, { index: 2, velocity: 2000, velocitySe: 0, segmentCount: 2, reversed: true }];
   const refractors = [{ points: [0, 47].map((x) => ({ x, depth: 5, elev: 95, depthSe: 0 })) }];
   const receivers = Array.from({ length: 48 }, (_, i) => i);
-  const fitOf = (sourceId: string, sourceX: number, late: (x: number) => number, outlierRows: number[] = []): BranchFit => {
-    const xs = receivers.filter((x) => x !== sourceX);
+  const fitOf = (sourceId: string, sourceX: number, late: (x: number) => number, outlierRows: number[] = [], keep: (x: number) => boolean = () => true): BranchFit => {
+    const xs = receivers.filter((x) => x !== sourceX && keep(x));
     const picks = xs.map((x, i) => ({ sourceId, sourceX, sourceElev: 100, receiverX: x, receiverElev: 100, time: flatFirstArrival([5], [500, 2000], x - sourceX) + late(x), row: i + 2 }));
     return {
       branch: { sourceId, sourceX, sourceElev: 100, side: 'forward', picks, offsets: xs.map((x) => Math.abs(x - sourceX)), distances: xs.map((x) => Math.abs(x - sourceX)), times: picks.map((p) => p.time) },
@@ -93,6 +93,23 @@ describe('forwardCheck', () => {
     const withOffEnd = forwardCheck([...fits, fitOf('S3', -10, () => 3e-3)], layers, refractors, () => 100, 1)!;
     expect(withOffEnd.picks).toBe(94);
     expect(forwardCheck(fits, layers, [], () => 100, 1)).toBeUndefined();
+    // A refractor without points gives no section, and no source inside the spread no check.
+    expect(forwardCheck(fits, layers, [...refractors, { points: [] }], () => 100, 1)).toBeUndefined();
+    expect(forwardCheck([fitOf('S3', -10, () => 0, [], (x) => x >= 0)], layers, refractors, () => 100, 1)).toBeUndefined();
+  });
+
+  it('forwardCheck takes both branches of a source inside the spread, and leaves out a source 1.5 spacings beyond the end geophone', () => {
+    // A source at 23.5 m: its forward and reverse branches (24 picks each) are both checked.
+    const left = fitOf('S5', 23.5, () => 0, [], (x) => x < 23.5);
+    const right = fitOf('S5', 23.5, () => 0, [], (x) => x > 23.5);
+    const centre = forwardCheck([left, right], layers, refractors, () => 100, 1)!;
+    expect(centre.picks).toBe(48);
+    expect(centre.rms).toBeLessThan(5e-5);
+    // Geophones every 2 m from 0 to 46 m, a source at 49 m (1.5 spacings beyond 46 m), 3 ms late: left out.
+    const every2 = (x: number) => x % 2 === 0 && x <= 46;
+    const inside = fitOf('S1', 0, () => 0, [], every2);
+    const beyond = fitOf('S6', 49, () => 3e-3, [], every2);
+    expect(forwardCheck([inside, beyond], layers, refractors, () => 100, 2)!.picks).toBe(23);
   });
 
   it('isForwardMisfit: RMS above max(2σ, σ + 0.3 ms), the rule its documentation states (measured on forward-model lines)', () => {
