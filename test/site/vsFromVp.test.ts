@@ -26,4 +26,9 @@ describe('vpVsRatio', () => {
     expect(() => vpVsRatio(0.5)).toThrow(/below 0.5/);
     expect(() => vpVsRatio(-0.1)).toThrow(RangeError);
   });
+
+  it('poissonFromRatio rejects a Vp/Vs of 1.3, below sqrt 2 (it would need ν < 0), naming the bound', () => {
+    // ν = (r² − 2) / (2 (r² − 1)) = (1.69 − 2) / 1.38 = −0.22 for r = 1.3, by hand.
+    expect(() => poissonFromRatio(1.3)).toThrow(/Vp\/Vs must be above sqrt\(2\) = 1\.414.*got 1\.3/);
+  });
 });
