@@ -449,9 +449,10 @@ function normalEquations(rows: SparseRow[], residuals: Float64Array, rtr: Float6
       // ∂t/∂shift = 1 for every pick.
       gradient[shiftIndex] += r;
       normal[shiftIndex * n + shiftIndex] += 1;
-      for (let a = 0; a < index.length; a++) {
-        normal[shiftIndex * n + index[a]] += value[a];
-        normal[index[a] * n + shiftIndex] += value[a];
+      // Over the entries JᵀJ keeps, so that the matrix stays a Gram matrix (positive semi-definite).
+      for (let a = 0; a < kept; a++) {
+        normal[shiftIndex * n + keptIndex[a]] += keptValue[a];
+        normal[keptIndex[a] * n + shiftIndex] += keptValue[a];
       }
     }
   });

@@ -59,6 +59,27 @@ describe('layeredInversion', () => {
     expect(Math.abs(result.section.velocities[0] / v1 - 1)).toBeLessThan(0.01);
   });
 
+  it('layeredInversion with timeShift on a three-layer line with shots far off the ends gives finite standard errors, and no delay where there is none (within 3 SE)', () => {
+    // 448 / 2101 / 4135 m/s, refractors flat at 4.4 and 21.2 m, 48 geophones at 3 m, shots at the
+    // ends, the middle and 113 m and 120 m off the ends; independent reference model, no delay,
+    // noise 0.34 ms (seeded). The head waves of the far shots bend along the refractors, whose
+    // small derivatives JᵀJ leaves out; the time shift's column must leave out the same ones, or
+    // the normal matrix is not a Gram matrix and its Cholesky factor (the covariance) breaks down.
+    const xs = Array.from({ length: 48 }, (_, i) => i * 3);
+    const section: LayeredSection = { surface: () => 100, interfaces: [() => 95.6, () => 78.8], velocities: [448, 2101, 4135] };
+    const normal = seededNormal(1);
+    const picks = [-113, 0, 72, 141, 261].flatMap((sx) => {
+      const rxs = xs.filter((r) => r !== sx);
+      const t = firstArrivals(section, sx, rxs, [-118, 266], 0.2);
+      return rxs.map((rx, i) => ({ sourceX: sx, sourceZ: 100, receiverX: rx, receiverZ: 100, time: t[i] + 0.34e-3 * normal() }));
+    });
+    const result = layeredInversion(picks, { ground: () => 100, spacing: 3, receiverXs: xs, velocities: [448, 2101, 4135], refractors: [4.4, 21.2].map((d) => xs.map((x) => ({ x, elev: 100 - d }))) }, { timeShift: true });
+    expect(Number.isFinite(result.timeShiftSe)).toBe(true);
+    expect(Math.abs(result.timeShift)).toBeLessThan(3 * result.timeShiftSe);
+    for (const se of result.velocitySe) expect(Number.isFinite(se)).toBe(true);
+    for (const profile of result.profiles) for (const p of profile) expect(Number.isFinite(p.depthSe)).toBe(true);
+  });
+
   it('layeredInversion recovers a refractor dipping 4° within 0.15 m from a flat start (Telford et al. 1990, §4.2)', () => {
     // Down-dip t = x sin(θc + δ)/V₁ + 2 h cos θc/V₁, up-dip with θc − δ, h the perpendicular depth
     // under the source (Telford, Geldart & Sheriff 1990, §4.2, dipping refractor, worked here).
