@@ -8,7 +8,6 @@
 import { SimpleLinearRegression } from 'ml-regression';
 import { WarningLog } from '../src/core/warnings.js';
 import { checkLayerCautions, checkShearTopLayer } from '../src/core/cautions.js';
-import { linearAt } from '../src/core/interpolate.js';
 import { interceptTimeDepths } from '../src/depth/interceptTime.js';
 import { refractorProfiles } from '../src/depth/profiles.js';
 import { reciprocalChecks } from '../src/depth/reciprocal.js';
@@ -120,9 +119,8 @@ stage('depth methods (plus-minus, GRM, delay-time)', none, () => refractorProfil
 stage('layered inversion (refineByInversion)', () => ({ refractors: structuredClone(refractors), layers: structuredClone(usable) }),
   (input) => refineByInversion({ fits, layers: input.layers, refractors: input.refractors, receivers: ground, spacing, wave: 'P', pickNoise: noiseSigma }, {}, log()), 11);
 const result = interpret(table, {}, log());
-const groundAt = (x: number) => linearAt(receivers, receivers.map(() => 100), x);
 const checked = result.layers.slice(0, result.refractors.length + 1);
-stage('forward check', none, () => forwardCheck(result.fits, checked, result.refractors, groundAt, spacing), 30);
+stage('forward check', none, () => forwardCheck({ fits: result.fits, layers: checked, refractors: result.refractors, receivers: ground, spacing, timeShift: result.inversion?.kept ? result.inversion.timeShift ?? 0 : 0 }), 30);
 stage('pick noise', none, () => pickNoise(fits, spacing, reciprocal.map((c) => c.timeAB - c.timeBA), lineRms, []), 30);
 
 const sum = { wall: 0, cpu: 0 };

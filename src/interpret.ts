@@ -10,10 +10,9 @@ import { reciprocalChecks, reciprocalTolerance, type ReciprocalCheck } from './d
 import { splitBranches } from './fit/branches.js';
 import type { BranchChoices } from './fit/fitBranches.js';
 import { fitLine } from './fit/fitLine.js';
-import { forwardCheck, isForwardMisfit, type ForwardCheck } from './forward/forwardCheck.js';
+import { checkedPicks, forwardCheck, isForwardMisfit, type ForwardCheck } from './forward/forwardCheck.js';
 import type { LayeredInversionOptions } from './model/layeredInversion.js';
 import { KEEP_MARGIN, KEEP_MARGIN_SECONDS, refineByInversion, type InversionSummary } from './model/refineByInversion.js';
-import { linearAt } from './core/interpolate.js';
 import { assignLayers, layerVelocities } from './fit/layers.js';
 import { COUNT_CRITERION, jointModel, type JointModel } from './model/jointModel.js';
 import { pickNoise as estimatePickNoise, type PickNoise } from './model/pickNoise.js';
@@ -138,10 +137,9 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   if (inversion !== undefined) {
     history.push({ step: 'inversion', parameters: { method: 'Levenberg-Marquardt (Levenberg 1944; Marquardt 1963)', kept: inversion.kept, smoothing: inversion.smoothing, node_spacing_m: inversion.nodeSpacing, lateral_gradient: inversion.lateralGradient, iterations: inversion.iterations, keep_margin: `RMS lower by ${KEEP_MARGIN * 100} % and ${KEEP_MARGIN_SECONDS * 1e3} ms`, time_shift: inversion.timeShift !== undefined } });
   }
-  const groundXs = receivers.map((r) => r.x);
-  const receiverElevs = receivers.map((r) => r.elev);
-  const ground = (x: number) => linearAt(groundXs, receiverElevs, x);
-  const forward = forwardCheck(fits, usable, refractors, ground, spacing);
+  // A time shift the kept inversion fitted belongs to its section.
+  const timeShift = inversion?.kept ? inversion.timeShift ?? 0 : 0;
+  const forward = forwardCheck({ fits, layers: usable, refractors, receivers, spacing, timeShift });
   if (forward !== undefined && isForwardMisfit(forward.rms, noise.sigma)) {
     log.add('forward-misfit', si`first arrivals computed through the interpreted section differ from the picks by ${(forward.rms * 1e3).toFixed(2)} ms RMS, against a pick noise of ${(noise.sigma * 1e3).toFixed(2)} ms (from the ${noise.source} of the picks), worst ${(forward.worst.difference * 1e3).toFixed(1)} ms for source ${forward.worst.sourceId} at x = ${len(forward.worst.receiverX, 2)}: the section does not explain the picks well; look for a missed layer, a wrong segment choice or a lateral change`);
   }
@@ -163,7 +161,8 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     log.add('vs-from-vp-saturated', plan.refused);
   }
 
-  const used = fits.reduce((n, f) => n + f.branch.picks.length - f.outlierRows.length, 0);
+  // Each pick once: a zero-offset pick joins every branch of its source.
+  const used = checkedPicks(fits).length;
   return {
     file: table.file,
     wave,

@@ -1,64 +1,206 @@
 import type { BranchFit, Layer, RefractorPoint } from '../core/types.js';
+import { linearAt } from '../core/interpolate.js';
 import { maxOf, minOf } from '../core/extent.js';
-import { sampleSection, sectionTimes } from './sectionTimes.js';
+import { sampleNodeSection, type NodeSection } from '../model/nodeSection.js';
+import { sectionPaths, type Shot } from '../model/sectionPaths.js';
+
+/** The forward check of one source. */
+export interface SourceMisfit {
+  sourceId: string;
+  /** Source position along the line, in metres. */
+  sourceX: number;
+  /** True when the source lies off the ends of the geophones. */
+  offEnd: boolean;
+  picks: number;
+  /** RMS of pick minus computed first arrival, in seconds. */
+  rms: number;
+  /** Mean of pick minus computed first arrival, in seconds, before any correction (a constant lead or lag of the whole shot). */
+  mean: number;
+  /**
+   * Sources off the ends: for each refractor whose head wave the source's picks are assigned to,
+   * the delay under the source that the picks give (their mean difference from the section), in
+   * seconds, taken out before the RMS.
+   */
+  corrections: { layer: number; correction: number; picks: number }[];
+}
 
 export interface ForwardCheck {
-  /** RMS of pick minus computed first arrival, in seconds, over the picks used in the fits. */
+  /** RMS of pick minus computed first arrival, in seconds, over every pick the fits used (each once). */
   rms: number;
   /** Largest absolute difference, in seconds, and where. */
   worst: { difference: number; sourceId: string; receiverX: number };
   picks: number;
+  /** The same per source, in the order of the line. */
+  sources: SourceMisfit[];
+  /** Pick minus computed first arrival of every pick checked (after the corrections of sources off the ends), in seconds, source by source; row is the pick's row in its table. */
+  residuals: { sourceId: string; receiverX: number; row: number; difference: number }[];
+  /** Time shift common to every pick that the section carries (a trigger delay fitted by the layered inversion), in seconds; 0 when none. */
+  timeShift: number;
+}
+
+/** What the forward check is run on. */
+export interface ForwardCheckInput {
+  fits: BranchFit[];
+  /** Layers down to the deepest refractor with depths (one more than the refractors). */
+  layers: Layer[];
+  /** Recommended profile of each refractor, top down. */
+  refractors: { points: RefractorPoint[] }[];
+  /** Receiver positions and ground elevations, ascending in x, in metres. */
+  receivers: { x: number; elev: number }[];
+  /** Geophone spacing, in metres. */
+  spacing: number;
+  /** Time shift common to every pick, in seconds, added to every computed time (default 0). */
+  timeShift?: number;
 }
 
 /**
  * The forward check of an interpretation: first-arrival times computed through the interpreted
  * section (the recommended refractor depths under the geophones, the layer velocities) for every
- * source, compared with the picks. A misfit well above the pick noise means the section does not
- * explain the data (a missed layer, a wrong layer assignment, a lateral change). Sources off the
- * ends of the spread are left out: their rays go down beyond the geophones.
+ * source, those off the ends of the spread included, compared with every pick the line fits used
+ * (outliers left out, a zero-offset pick once). A misfit well above the pick noise means the
+ * section does not explain the data (a missed layer, a wrong layer assignment, a lateral change).
+ *
+ * The section is the one the layered inversion works on (model/nodeSection, model/sectionPaths):
+ * refractor elevations at nodes under the geophones, continued at the same spacing out to the
+ * sources off the ends and held at the end values there; the ground runs straight between the
+ * receivers and the sources. When the inversion fitted a common time shift (a trigger delay) and
+ * was kept, that shift belongs to the section and is added to every computed time.
  *
  * @returns undefined when there is no refractor to build a section from
  */
-export function forwardCheck(fits: BranchFit[], layers: Layer[], refractors: { points: RefractorPoint[] }[], ground: (x: number) => number, spacing: number): ForwardCheck | undefined {
-  if (refractors.length === 0 || refractors.some((r) => r.points.length === 0)) return undefined;
-  const section = {
+export function forwardCheck(input: ForwardCheckInput): ForwardCheck | undefined {
+  const { fits, layers, refractors, receivers, spacing } = input;
+  const timeShift = input.timeShift ?? 0;
+  if (refractors.length === 0 || refractors.some((r) => r.points.length === 0) || layers.length < refractors.length + 1 || receivers.length === 0) return undefined;
+  const picks = checkedPicks(fits);
+  if (picks.length === 0) return undefined;
+  const ground = groundLine(receivers, fits);
+  const allX = picks.flatMap((p) => [p.sourceX, p.receiverX]);
+  const nodeXs = nodesAlong(receivers.map((r) => r.x), minOf(allX), maxOf(allX), spacing);
+  const section: NodeSection = {
     ground,
-    refractors: refractors.map((r) => r.points.map((p) => ({ x: p.x, elev: p.elev }))),
-    velocities: layers.slice(0, refractors.length + 1).map((l) => l.velocity),
+    nodeXs,
+    xRef: (nodeXs[0] + nodeXs[nodeXs.length - 1]) / 2,
+    elevations: refractors.map((r) => {
+      const xs = r.points.map((p) => p.x);
+      const elevs = r.points.map((p) => p.elev);
+      return Float64Array.from(nodeXs, (x) => linearAt(xs, elevs, x));
+    }),
+    velocities: Float64Array.from(layers.slice(0, refractors.length + 1), (l) => l.velocity),
+    gradients: new Float64Array(refractors.length + 1),
   };
-  const all = fits.flatMap((f) => f.branch.picks.map((p) => p.receiverX).concat(f.branch.sourceX));
-  const span: [number, number] = [minOf(all) - 2 * spacing, maxOf(all) + 2 * spacing];
-  // Refractors sampled at half the geophone spacing (at most 400 samples): the check is against
+  // Samples every half geophone spacing (at most 600, as the inversion): the check is against
   // picks a tenth of a millisecond apart, and the least time over samples errs far less.
-  const step = Math.max(spacing / 2, (span[1] - span[0]) / 400);
-  const sampled = sampleSection(section, span, step);
+  const span: [number, number] = [minOf(allX) - 2 * spacing, maxOf(allX) + 2 * spacing];
+  const step = Math.max(spacing / 2, (span[1] - span[0]) / 600);
+  const sampled = sampleNodeSection(section, span, step);
+
+  const bySource = new Map<string, CheckedPick[]>();
+  for (const p of picks) {
+    const list = bySource.get(p.sourceId);
+    if (list === undefined) bySource.set(p.sourceId, [p]);
+    else list.push(p);
+  }
+  const groups = [...bySource.values()].sort((a, b) => a[0].sourceX - b[0].sourceX);
+  const shots: Shot[] = groups.map((g) => ({ x: g[0].sourceX, z: g[0].sourceElev, receivers: g.map((p) => ({ x: p.receiverX, z: p.receiverElev })) }));
+  const { times } = sectionPaths(sampled, shots);
+  const first = receivers[0].x;
+  const last = receivers[receivers.length - 1].x;
   let sum = 0;
   let count = 0;
+  const residuals: ForwardCheck['residuals'] = [];
   let worst = { difference: 0, sourceId: '', receiverX: 0 };
-  const bySource = new Map<string, BranchFit[]>();
+  const sources: SourceMisfit[] = groups.map((g, s) => {
+    const sx = g[0].sourceX;
+    const offEnd = sx < first - spacing / 2 || sx > last + spacing / 2;
+    const differences = g.map((p, r) => p.time - times[s][r] - timeShift);
+    const mean = differences.reduce((a, d) => a + d, 0) / g.length;
+    // Off the ends, the rays of a head wave go down beyond the geophones, where no depth is known:
+    // the delay there is taken from the picks (one per refractor, as a time term).
+    const corrections: SourceMisfit['corrections'] = [];
+    if (offEnd) {
+      const byLayer = new Map<number, number[]>();
+      g.forEach((p, r) => {
+        if (p.layer < 2) return;
+        const list = byLayer.get(p.layer);
+        if (list === undefined) byLayer.set(p.layer, [r]);
+        else list.push(r);
+      });
+      for (const [layer, members] of [...byLayer.entries()].sort((a, b) => a[0] - b[0])) {
+        const correction = members.reduce((a, r) => a + differences[r], 0) / members.length;
+        for (const r of members) differences[r] -= correction;
+        corrections.push({ layer, correction, picks: members.length });
+      }
+    }
+    let squares = 0;
+    differences.forEach((difference, r) => {
+      squares += difference * difference;
+      if (Math.abs(difference) > Math.abs(worst.difference)) worst = { difference, sourceId: g[r].sourceId, receiverX: g[r].receiverX };
+    });
+    sum += squares;
+    count += g.length;
+    differences.forEach((difference, r) => residuals.push({ sourceId: g[r].sourceId, receiverX: g[r].receiverX, row: g[r].row, difference }));
+    const rms = Math.sqrt(squares / g.length);
+    return { sourceId: g[0].sourceId, sourceX: sx, offEnd, picks: g.length, rms, mean, corrections };
+  });
+  return { rms: Math.sqrt(sum / count), worst, picks: count, sources, timeShift, residuals };
+}
+
+interface CheckedPick {
+  sourceId: string;
+  sourceX: number;
+  sourceElev: number;
+  receiverX: number;
+  receiverElev: number;
+  time: number;
+  row: number;
+  /** Layer whose arrival the line fits assign the pick to (1 = direct wave). */
+  layer: number;
+}
+
+/**
+ * Every pick the line fits used, once each: outliers left out, and a zero-offset pick, which
+ * joins every branch of its source, counted once.
+ */
+export function checkedPicks(fits: BranchFit[]): CheckedPick[] {
+  const seen = new Set<string>();
+  const picks: CheckedPick[] = [];
   for (const f of fits) {
-    if (!bySource.has(f.branch.sourceId)) bySource.set(f.branch.sourceId, []);
-    bySource.get(f.branch.sourceId)!.push(f);
-  }
-  const receiverXs = fits.flatMap((f) => f.branch.picks.map((p) => p.receiverX));
-  const first = minOf(receiverXs);
-  const last = maxOf(receiverXs);
-  for (const [sourceId, sourceFits] of bySource) {
-    // A source off the ends sends its rays down where the section is not known (beyond the
-    // geophones the refractors are only held flat), so it is left out of the check.
-    const sx = sourceFits[0].branch.sourceX;
-    if (sx < first - spacing / 2 || sx > last + spacing / 2) continue;
-    const picks = sourceFits.flatMap((f) => f.branch.picks.filter((p) => !f.outlierRows.includes(p.row)));
-    const times = sectionTimes(sampled, sourceFits[0].branch.sourceX, picks.map((p) => p.receiverX));
-    picks.forEach((p, i) => {
-      const difference = p.time - times[i];
-      sum += difference * difference;
-      count++;
-      if (Math.abs(difference) > Math.abs(worst.difference)) worst = { difference, sourceId, receiverX: p.receiverX };
+    const outliers = new Set(f.outlierRows);
+    f.branch.picks.forEach((p, i) => {
+      const key = `${p.row}|${p.sourceId}|${p.receiverX}`;
+      if (outliers.has(p.row) || seen.has(key)) return;
+      seen.add(key);
+      const layer = f.segments.find((s) => i >= s.start && i < s.end)?.layer ?? 1;
+      picks.push({ sourceId: p.sourceId, sourceX: p.sourceX, sourceElev: p.sourceElev, receiverX: p.receiverX, receiverElev: p.receiverElev, time: p.time, row: p.row, layer });
     });
   }
-  if (count === 0) return undefined;
-  return { rms: Math.sqrt(sum / count), worst, picks: count };
+  return picks;
+}
+
+/** Ground elevation along the line: straight between the receivers and the sources, end values beyond. */
+function groundLine(receivers: { x: number; elev: number }[], fits: BranchFit[]): (x: number) => number {
+  const byX = new Map<number, number>();
+  for (const f of fits) byX.set(f.branch.sourceX, f.branch.sourceElev);
+  for (const r of receivers) byX.set(r.x, r.elev);
+  const sorted = [...byX.entries()].sort((a, b) => a[0] - b[0]);
+  const xs = sorted.map(([x]) => x);
+  const elevations = sorted.map(([, e]) => e);
+  return (x) => linearAt(xs, elevations, x);
+}
+
+/**
+ * Node positions: every receiver, then continued at the geophone spacing beyond the first and
+ * the last out to `lowest` and `highest` (the sources off the ends), as the layered inversion's
+ * nodes are.
+ */
+function nodesAlong(receiverXs: number[], lowest: number, highest: number, spacing: number): Float64Array {
+  const xs = [...new Set(receiverXs)].sort((a, b) => a - b);
+  const before: number[] = [];
+  for (let x = xs[0] - spacing; x > lowest - spacing; x -= spacing) before.unshift(x);
+  const after: number[] = [];
+  for (let x = xs[xs.length - 1] + spacing; x < highest + spacing; x += spacing) after.push(x);
+  return Float64Array.from([...before, ...xs, ...after]);
 }
 
 /**

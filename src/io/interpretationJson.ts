@@ -6,6 +6,7 @@ import { siteJson, siteNotClassifiedJson } from './siteJson.js';
 import { COUNT_CRITERION, type JointModel } from '../model/jointModel.js';
 import { timeTermVelocities } from '../model/timeTermVelocities.js';
 import type { InversionSummary } from '../model/refineByInversion.js';
+import type { ForwardCheck } from '../forward/forwardCheck.js';
 
 /** Version tag of the JSON document; change it when a stable field changes meaning. */
 export const INTERPRETATION_SCHEMA = 'hammerline/interpretation@1';
@@ -36,6 +37,23 @@ function branch(fit: BranchFit) {
     residual_sd_ms: round(fit.residualSd * 1e3, 3),
     segments_chosen_by: fit.chosenBy === 'user' ? 'user' : 'BIC',
     bic_by_segment_count: fit.criterionBySegments.map((b) => round(b, 2)),
+  };
+}
+
+/** Additions to qc of the forward check: picks checked, the time shift carried, and every source's misfit (those off the ends included). */
+function forwardJson(forward: ForwardCheck) {
+  return {
+    forward_picks: forward.picks,
+    forward_time_shift_ms: round(forward.timeShift * 1e3, 3),
+    forward_sources: forward.sources.map((s) => ({
+      source_id: s.sourceId,
+      source_x_m: round(s.sourceX, 3),
+      off_end: s.offEnd,
+      picks: s.picks,
+      rms_ms: round(s.rms * 1e3, 3),
+      mean_ms: round(s.mean * 1e3, 3),
+      ...(s.offEnd ? { beyond_spread_delays: s.corrections.map((c) => ({ layer: c.layer, delay_ms: round(c.correction * 1e3, 3), picks: c.picks })) } : {}),
+    })),
   };
 }
 
@@ -148,6 +166,7 @@ export function interpretationJson(result: InterpretationResult, extra: Record<s
         ...(result.pickNoise.confidence ? { confidence: { median: round(result.pickNoise.confidence.median, 3), picks: result.pickNoise.confidence.count } } : {}),
       },
       ...(result.forward ? { forward_worst: { difference_ms: round(result.forward.worst.difference * 1e3, 3), source_id: result.forward.worst.sourceId, receiver_x_m: result.forward.worst.receiverX } } : {}),
+      ...(result.forward ? forwardJson(result.forward) : {}),
       ...(result.inversion ? { inversion: inversionJson(result.inversion) } : {}),
       reciprocal: result.reciprocal.map((c) => ({
         source_a: c.sourceA, source_b: c.sourceB,

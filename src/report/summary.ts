@@ -8,6 +8,9 @@ import { siteSummary, vsProfileTable } from './siteSummary.js';
 import { displayText } from './unitText.js';
 import { maxOf, pushAll } from '../core/extent.js';
 
+/** Milliseconds to two decimals, without a negative zero. */
+const ms = (seconds: number) => (Math.abs(seconds) < 0.005e-3 ? 0 : seconds * 1e3).toFixed(2);
+
 /** "1 branch", "2 branches". */
 export function count(n: number, singular: string, plural = `${singular}s`): string {
   return `${n} ${n === 1 ? singular : plural}`;
@@ -25,7 +28,8 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
   const vLabel = velocityLabel(unit);
   const out: string[] = [];
   out.push(`hammerline ${VERSION}: ${result.file}`);
-  const outliers = result.fits.reduce((n, f) => n + f.outlierRows.length, 0);
+  // Each pick once: a zero-offset pick joins every branch of its source (and may be an outlier of each).
+  const outliers = new Set(result.fits.flatMap((f) => f.outlierRows.map((row) => `${f.branch.sourceId}|${row}`))).size;
   out.push(`${result.wave}-wave line, ${count(result.fits.length, 'branch', 'branches')} from ${count(new Set(result.fits.map((f) => f.branch.sourceId)).size, 'source')}, ${result.picksUsed} of ${count(result.picksTotal, 'pick')} used (${count(outliers, 'outlier')} left out), line-fit RMS ${(result.fitRmsSeconds * 1e3).toFixed(2)} ms`);
   if (result.records?.length) out.push(`Picks: ${result.wave === 'S' ? 'S-wave onsets (the shear arrival after the P)' : 'first breaks'} picked automatically from ${result.records.length} shot record${result.records.length > 1 ? 's' : ''}`);
   out.push('');
@@ -80,7 +84,11 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
   const noise = result.pickNoise;
   out.push(`Pick noise: ${(noise.sigma * 1e3).toFixed(2)} ms, from the ${noise.source} of the picks${noise.reciprocal && noise.source !== 'reciprocal times' ? `; reciprocal times give ${(noise.reciprocal.sigma * 1e3).toFixed(2)} ms over ${noise.reciprocal.count} pair${noise.reciprocal.count === 1 ? '' : 's'}` : ''}`);
   if (result.forward) {
-    out.push(`Forward check: first arrivals computed through the interpreted section match the ${count(result.forward.picks, 'pick')} to ${(result.forward.rms * 1e3).toFixed(2)} ms RMS (worst ${(result.forward.worst.difference * 1e3).toFixed(2)} ms, source ${result.forward.worst.sourceId} at x = ${len(result.forward.worst.receiverX).toFixed(2)} ${unit})`);
+    const fw = result.forward;
+    const offEnd = fw.sources.filter((s) => s.offEnd);
+    out.push(`Forward check: first arrivals computed through the interpreted section match the ${count(fw.picks, 'pick')} of ${count(fw.sources.length, 'source')} to ${(fw.rms * 1e3).toFixed(2)} ms RMS (worst ${(fw.worst.difference * 1e3).toFixed(2)} ms, source ${fw.worst.sourceId} at x = ${len(fw.worst.receiverX).toFixed(2)} ${unit}${fw.timeShift !== 0 ? `; computed times include the ${(fw.timeShift * 1e3).toFixed(2)} ms trigger delay fitted by the layered inversion` : ''})`);
+    out.push(`  By source (ms RMS): ${fw.sources.map((s) => `${s.sourceId} ${(s.rms * 1e3).toFixed(2)}${s.offEnd ? ' (off the end)' : ''}`).join('; ')}`);
+    if (offEnd.length > 0) out.push(`  Sources off the ends: the section beyond the geophones is not known, so the delay there is taken from their picks (${offEnd.map((s) => `${s.sourceId} ${s.corrections.map((c) => `${ms(c.correction)} ms on the layer ${c.layer} head wave`).join(', ') || 'none'}`).join('; ')}); the RMS shows how well the section under the geophones explains the rest of their picks.`);
   }
   if (result.inversion) {
     const inv = result.inversion;

@@ -1,9 +1,7 @@
 import { InputError } from '../../src/core/errors.js';
-import { linearAt } from '../../src/core/interpolate.js';
 import type { Wave } from '../../src/core/types.js';
 import type { LengthUnit } from '../../src/core/units.js';
 import { WarningLog } from '../../src/core/warnings.js';
-import { sampleSection, sectionTimes } from '../../src/forward/sectionTimes.js';
 import { depthsCsv } from '../../src/io/depthsCsv.js';
 import { readFirstBreaks } from '../../src/io/firstBreaksCsv.js';
 import { interpretationJson } from '../../src/io/interpretationJson.js';
@@ -11,7 +9,7 @@ import { pickTableCsv } from '../../src/io/pickTable.js';
 import type { PickEdit, ProjectChoices, ProjectInput } from '../../src/io/projectFile.js';
 import { pickKey, pickProjectRecord, projectInterpretOptions, projectLine } from '../../src/io/projectLine.js';
 import { readStations } from '../../src/io/stationsCsv.js';
-import { interpret, receiverGround, receiverSpacing, type InterpretationResult } from '../../src/interpret.js';
+import { interpret, receiverGround, type InterpretationResult } from '../../src/interpret.js';
 import type { PickRow, Stations } from '../../src/picking/recordPicks.js';
 import { firstBreakTableCsv } from './tableCsv.js';
 
@@ -199,7 +197,7 @@ function compute(cache: LineCache, edits: PickEdit[], choices: ProjectChoices, u
       picks,
       receivers,
       sources,
-      residuals: residuals(result, receivers, receiverSpacing(table), rowKey),
+      residuals: residuals(result, rowKey),
       exports: {
         picksCsv,
         picksName: `${name.replace(/ and \d+ more records?$/, '').replace(/\.[^.]*$/, '')}-first-breaks.csv`,
@@ -211,36 +209,7 @@ function compute(cache: LineCache, edits: PickEdit[], choices: ProjectChoices, u
   }
 }
 
-/**
- * Pick minus computed first arrival for every pick the forward check uses: the same section,
- * sampling and choice of sources as src/forward/forwardCheck.ts (which gives only the RMS and the
- * worst pick), kept per pick so the checks view can show each one.
- */
-function residuals(result: InterpretationResult, receivers: { x: number; elev: number }[], spacing: number, rowKey: Map<number, string>): Residual[] {
-  if (result.forward === undefined) return [];
-  const fits = result.fits;
-  const usable = result.layers.slice(0, result.refractors.length + 1);
-  const xs = receivers.map((r) => r.x);
-  const elevs = receivers.map((r) => r.elev);
-  const section = {
-    ground: (x: number) => linearAt(xs, elevs, x),
-    refractors: result.refractors.map((r) => r.points.map((p) => ({ x: p.x, elev: p.elev }))),
-    velocities: usable.map((l) => l.velocity),
-  };
-  const all = fits.flatMap((f) => f.branch.picks.map((p) => p.receiverX).concat(f.branch.sourceX));
-  const span: [number, number] = [Math.min(...all) - 2 * spacing, Math.max(...all) + 2 * spacing];
-  const sampled = sampleSection(section, span, Math.max(spacing / 2, (span[1] - span[0]) / 400));
-  const receiverXs = fits.flatMap((f) => f.branch.picks.map((p) => p.receiverX));
-  const first = Math.min(...receiverXs);
-  const last = Math.max(...receiverXs);
-  const out: Residual[] = [];
-  for (const sourceId of [...new Set(fits.map((f) => f.branch.sourceId))]) {
-    const sourceFits = fits.filter((f) => f.branch.sourceId === sourceId);
-    const sx = sourceFits[0].branch.sourceX;
-    if (sx < first - spacing / 2 || sx > last + spacing / 2) continue;
-    const picks = sourceFits.flatMap((f) => f.branch.picks.filter((p) => !f.outlierRows.includes(p.row)));
-    const times = sectionTimes(sampled, sx, picks.map((p) => p.receiverX));
-    picks.forEach((p, i) => out.push({ key: rowKey.get(p.row) ?? '', sourceId, receiverX: p.receiverX, difference: p.time - times[i] }));
-  }
-  return out;
+/** Pick minus computed first arrival for every pick the forward check (src/forward/forwardCheck.ts) uses, keyed for the checks view. */
+function residuals(result: InterpretationResult, rowKey: Map<number, string>): Residual[] {
+  return (result.forward?.residuals ?? []).map((r) => ({ key: rowKey.get(r.row) ?? '', sourceId: r.sourceId, receiverX: r.receiverX, difference: r.difference }));
 }

@@ -11,6 +11,7 @@ const QC_LABELS: Record<string, string> = {
   forward_rms_ms: 'RMS difference between the picks and first arrivals computed through the interpreted section',
   pick_noise_ms: 'Pick noise estimated from the data',
   inversion_rms_ms: 'RMS residual of the layered-model inversion',
+  forward_time_shift_ms: 'Time shift common to every pick (trigger delay) in the section checked',
 };
 
 /** Section 8: reciprocal times, forward residuals, picks left out, flagged or fixed by hand. */
@@ -19,7 +20,7 @@ export function qualitySection(input: ReportInput, fig: Figures): string {
   const rows: string[] = [];
   for (const [key, value] of Object.entries(qc)) {
     if (typeof value !== 'number' && value !== null) continue;
-    if (key === 'picks_used' || key === 'picks_total') continue;
+    if (key === 'picks_used' || key === 'picks_total' || key === 'forward_picks') continue;
     const kind = quantityOf(key);
     const digits = key.endsWith('_ms') ? 2 : 3;
     const shown = kind !== undefined ? fig.withUnit(kind, () => fig.num(`qc.${key}`, digits)) : `${fig.num(`qc.${key}`, digits)}${key.endsWith('_ms') ? ' ms' : ''}`;
