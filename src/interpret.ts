@@ -10,6 +10,7 @@ import { reciprocalChecks, reciprocalTolerance, type ReciprocalCheck } from './d
 import { splitBranches } from './fit/branches.js';
 import type { BranchChoices } from './fit/fitBranches.js';
 import { fitLine } from './fit/fitLine.js';
+import { velocityAnalysisCheck, type VelocityAnalysisCheck } from './depth/grm.js';
 import { checkedPicks, forwardCheck, isForwardMisfit, type ForwardCheck } from './forward/forwardCheck.js';
 import type { LayeredInversionOptions } from './model/layeredInversion.js';
 import { KEEP_MARGIN, KEEP_MARGIN_SECONDS, refineByInversion, type InversionSummary } from './model/refineByInversion.js';
@@ -70,6 +71,8 @@ export interface InterpretationResult extends Interpretation {
   pickNoise: PickNoise;
   /** What the layered inversion did (undefined when switched off or when there is no refractor). */
   inversion?: InversionSummary;
+  /** Each refractor's layer velocity against Palmer's velocity analysis over its reversed pair (refractors with a GRM profile). */
+  velocityAnalysis?: VelocityAnalysisCheck[];
 }
 
 /**
@@ -137,6 +140,8 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   if (inversion !== undefined) {
     history.push({ step: 'inversion', parameters: { method: 'Levenberg-Marquardt (Levenberg 1944; Marquardt 1963)', kept: inversion.kept, smoothing: inversion.smoothing, node_spacing_m: inversion.nodeSpacing, lateral_gradient: inversion.lateralGradient, iterations: inversion.iterations, keep_margin: `RMS lower by ${KEEP_MARGIN * 100} % and ${KEEP_MARGIN_SECONDS * 1e3} ms`, time_shift: inversion.timeShift !== undefined } });
   }
+  // The final layer velocities against the GRM velocity analysis of each refractor.
+  const velocityAnalysis = velocityAnalysisCheck(refractors, usable, log);
   // A time shift the kept inversion fitted belongs to its section.
   const timeShift = inversion?.kept ? inversion.timeShift ?? 0 : 0;
   const forward = forwardCheck({ fits, layers: usable, refractors, receivers, spacing, timeShift });
@@ -183,6 +188,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     joint,
     pickNoise: noise,
     inversion,
+    velocityAnalysis,
   };
 }
 

@@ -2,6 +2,10 @@ import { SimpleLinearRegression } from 'ml-regression';
 import type { DelayProfile } from './delayProfile.js';
 import { intervalIndex, timeAt } from './headWaves.js';
 import type { ReversedPair } from './reversedPair.js';
+import type { Layer } from '../core/types.js';
+import type { WarningLog } from '../core/warnings.js';
+import { si, vel } from '../core/siText.js';
+import type { RefractorMethods } from './profiles.js';
 
 /** One XY value tried by the GRM velocity analysis. */
 export interface XyTrial {
@@ -84,6 +88,7 @@ export function grm(pair: ReversedPair, refractor: number, spacing: number, pick
       xy_trials: trials.map((t) => ({ xy_m: t.xy, rms_ms: Number((t.rms * 1e3).toFixed(4)), velocity_mps: Number(t.velocity.toFixed(1)) })),
       source_forward: pair.forward.sourceId,
       source_reverse: pair.reverse.sourceId,
+      velocity_analysis_stations: chosen.tv.length,
     },
   };
 }
@@ -94,4 +99,67 @@ function noiseFactor(xs: number[], x: number): number {
   if (i >= xs.length - 1 || Math.abs(xs[i] - x) < 1e-9) return 1;
   const t = (x - xs[i]) / (xs[i + 1] - xs[i]);
   return (1 - t) ** 2 + t * t;
+}
+
+/**
+ * The refractor velocity of Palmer's velocity analysis against the layer velocity of the
+ * interpretation: each differs from the other by more than their combined standard error and by
+ * more than this fraction of the layer velocity before a warning is given.
+ */
+export const VELOCITY_ANALYSIS_TOLERANCE = 0.05;
+
+/** The velocity-analysis cross-check of one refractor's velocity. */
+export interface VelocityAnalysisCheck {
+  /** Refractor index (1 = top of layer 2). */
+  refractor: number;
+  /** V′ from the slope of t_V = (t_forward − t_reverse + t_reciprocal) / 2 against x at the GRM's XY, and its standard error, in m/s. */
+  velocity: number;
+  se: number;
+  /** XY the velocity analysis was read at, in metres, and the sources of the reversed pair. */
+  xy: number;
+  stations: number;
+  sourceForward: string;
+  sourceReverse: string;
+  /** The layer velocity of the interpretation beneath the refractor and its standard error, in m/s. */
+  layerVelocity: number;
+  layerSe: number;
+  /** (V′ − layer velocity) / layer velocity. */
+  difference: number;
+  /** True unless the two differ by more than their combined standard error and VELOCITY_ANALYSIS_TOLERANCE. */
+  agrees: boolean;
+}
+
+/**
+ * Cross-checks each refractor's layer velocity against Palmer's (1980) velocity-analysis function
+ * over its reversed pair (the GRM's own, at the XY the GRM chose): t_V has slope 1/V′ and, over a
+ * plane refractor, is a straight line for every XY (V′ = V / cos δ for a dip δ, within 0.4 % of V
+ * up to 5°). A `velocity-analysis-differs` warning names both values where they differ by more
+ * than √(SE₁² + SE₂²) and VELOCITY_ANALYSIS_TOLERANCE. Refractors without a reversed pair (no
+ * GRM) have no check.
+ */
+export function velocityAnalysisCheck(refractors: RefractorMethods[], layers: Layer[], log: WarningLog): VelocityAnalysisCheck[] {
+  const checks: VelocityAnalysisCheck[] = [];
+  for (const r of refractors) {
+    const info = r.methodInfo['GRM'];
+    const layer = layers[r.index];
+    if (info?.velocity_mps === undefined || layer === undefined) continue;
+    const velocity = Number(info.velocity_mps);
+    const se = Number(info.velocity_se_mps);
+    if (!(velocity > 0) || !Number.isFinite(se)) continue;
+    const layerSe = Number.isFinite(layer.velocitySe) ? layer.velocitySe : 0;
+    const gap = Math.abs(velocity - layer.velocity);
+    const agrees = !(gap > Math.hypot(se, layerSe) && gap > VELOCITY_ANALYSIS_TOLERANCE * layer.velocity);
+    const check: VelocityAnalysisCheck = {
+      refractor: r.index, velocity, se, xy: Number(info.optimum_xy_m), stations: Number(info.velocity_analysis_stations),
+      sourceForward: String(info.source_forward), sourceReverse: String(info.source_reverse),
+      layerVelocity: layer.velocity, layerSe, difference: (velocity - layer.velocity) / layer.velocity, agrees,
+    };
+    checks.push(check);
+    if (!agrees) {
+      log.add('velocity-analysis-differs',
+        si`refractor ${r.index}: the velocity analysis of the generalized reciprocal method (Palmer 1980; sources ${check.sourceForward} and ${check.sourceReverse}, ${check.stations} geophones) gives ${vel(velocity)} ± ${vel(se)} for layer ${r.index + 1}, against the layer velocity of ${vel(layer.velocity)} ± ${vel(layerSe)} used for the depths (${(check.difference * 100).toFixed(1)} %, more than their combined standard error and ${VELOCITY_ANALYSIS_TOLERANCE * 100} %). The refractor velocity, and with it every depth to this refractor, is less certain than its standard error says: check the head-wave picks assigned to this layer, and look for a lateral change of velocity or a refractor that is not plane`,
+        { layer: r.index + 1 });
+    }
+  }
+  return checks;
 }

@@ -7,6 +7,7 @@ import { COUNT_CRITERION, type JointModel } from '../model/jointModel.js';
 import { timeTermVelocities } from '../model/timeTermVelocities.js';
 import type { InversionSummary } from '../model/refineByInversion.js';
 import type { ForwardCheck } from '../forward/forwardCheck.js';
+import type { VelocityAnalysisCheck } from '../depth/grm.js';
 
 /** Version tag of the JSON document; change it when a stable field changes meaning. */
 export const INTERPRETATION_SCHEMA = 'hammerline/interpretation@1';
@@ -37,6 +38,26 @@ function branch(fit: BranchFit) {
     residual_sd_ms: round(fit.residualSd * 1e3, 3),
     segments_chosen_by: fit.chosenBy === 'user' ? 'user' : 'BIC',
     bic_by_segment_count: fit.criterionBySegments.map((b) => round(b, 2)),
+  };
+}
+
+/** Addition to each refractor: Palmer's velocity analysis against the layer velocity. */
+function velocityAnalysisJson(check: VelocityAnalysisCheck | undefined) {
+  if (check === undefined) return {};
+  return {
+    velocity_analysis: {
+      method: 'GRM velocity analysis (Palmer 1980)',
+      velocity_mps: round(check.velocity, 1),
+      velocity_se_mps: round(check.se, 1),
+      xy_m: round(check.xy, 3),
+      stations: check.stations,
+      source_forward: check.sourceForward,
+      source_reverse: check.sourceReverse,
+      layer_velocity_mps: round(check.layerVelocity, 1),
+      layer_velocity_se_mps: round(check.layerSe, 1),
+      difference_percent: round(check.difference * 100, 2),
+      agrees: check.agrees,
+    },
   };
 }
 
@@ -132,6 +153,7 @@ export function interpretationJson(result: InterpretationResult, extra: Record<s
       points: r.points.map((p, i) => point(p, r.pointMethods[i])),
       by_method: Object.fromEntries(Object.entries(r.byMethod).map(([m, pts]) => [m, pts.map((p) => point(p))])),
       method_info: r.methodInfo,
+      ...velocityAnalysisJson(result.velocityAnalysis?.find((c) => c.refractor === r.index)),
       ...(r.hiddenLayer ? {
         hidden_layer: {
           assumed_velocity_mps: round(r.hiddenLayer.hiddenVelocity, 1),

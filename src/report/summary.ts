@@ -73,6 +73,8 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
     if (grmInfo) out.push(`  GRM optimum XY ${fromMetres(Number(grmInfo.optimum_xy_m), unit).toFixed(2)} ${unit} (from the ${String(grmInfo.optimum_xy_basis)}), sources ${String(grmInfo.source_forward)} and ${String(grmInfo.source_reverse)}`);
     const velocities = Object.entries(r.methodInfo).filter(([, info]) => info.velocity_mps !== undefined).map(([m, info]) => `${m} ${plusMinus(vel(Number(info.velocity_mps)), vel(Number(info.velocity_se_mps)), 0)}`);
     if (velocities.length > 0) out.push(`  Refractor velocity by method (${vLabel}): ${velocities.join('; ')}`);
+    const va = result.velocityAnalysis?.find((c) => c.refractor === r.index);
+    if (va) out.push(`  Velocity analysis (GRM, Palmer 1980; sources ${va.sourceForward} and ${va.sourceReverse}, XY ${len(va.xy).toFixed(2)} ${unit}): ${plusMinus(vel(va.velocity), vel(va.se), 0)} ${vLabel} against the layer velocity ${plusMinus(vel(va.layerVelocity), vel(va.layerSe), 0)} ${vLabel} (${va.difference >= 0 ? '+' : ''}${(va.difference * 100).toFixed(1)} %${va.agrees ? ', within their combined standard error or 5 %' : ''})`);
     if (r.hiddenLayer) out.push(`  Hidden-layer limit: ${displayText(hiddenLayerText(r), unit)}`);
     const qualifying = result.warnings.filter((w) => w.layer === r.index + 1);
     for (const w of qualifying) out.push(`  ! [${w.code}] ${displayText(w, unit)}`);
