@@ -144,7 +144,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   const velocityAnalysis = velocityAnalysisCheck(refractors, usable, log);
   // A time shift the kept inversion fitted belongs to its section.
   const timeShift = inversion?.kept ? inversion.timeShift ?? 0 : 0;
-  const forward = forwardCheck({ fits, layers: usable, refractors, receivers, spacing, timeShift });
+  const forward = forwardCheck({ fits, layers: usable, refractors, receivers, spacing, timeShift, section: inversion?.kept ? inversion.section : undefined });
   if (forward !== undefined && isForwardMisfit(forward.rms, noise.sigma)) {
     log.add('forward-misfit', si`first arrivals computed through the interpreted section differ from the picks by ${(forward.rms * 1e3).toFixed(2)} ms RMS, against a pick noise of ${(noise.sigma * 1e3).toFixed(2)} ms (from the ${noise.source} of the picks), worst ${(forward.worst.difference * 1e3).toFixed(1)} ms for source ${forward.worst.sourceId} at x = ${len(forward.worst.receiverX, 2)}: the section does not explain the picks well; look for a missed layer, a wrong segment choice or a lateral change`);
   }

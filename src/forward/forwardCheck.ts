@@ -51,6 +51,11 @@ export interface ForwardCheckInput {
   spacing: number;
   /** Time shift common to every pick, in seconds, added to every computed time (default 0). */
   timeShift?: number;
+  /**
+   * The section to check, when there is one already (the kept layered inversion's, whose nodes
+   * beyond the geophones were fitted to the off-end picks); otherwise it is built from `refractors`.
+   */
+  section?: Omit<NodeSection, 'ground'>;
 }
 
 /**
@@ -77,7 +82,7 @@ export function forwardCheck(input: ForwardCheckInput): ForwardCheck | undefined
   const ground = groundLine(receivers, fits);
   const allX = picks.flatMap((p) => [p.sourceX, p.receiverX]);
   const nodeXs = nodesAlong(receivers.map((r) => r.x), minOf(allX), maxOf(allX), spacing);
-  const section: NodeSection = {
+  const section: NodeSection = input.section !== undefined ? { ...input.section, ground } : {
     ground,
     nodeXs,
     xRef: (nodeXs[0] + nodeXs[nodeXs.length - 1]) / 2,

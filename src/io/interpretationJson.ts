@@ -55,25 +55,28 @@ function velocityAnalysisJson(check: VelocityAnalysisCheck | undefined) {
       source_reverse: check.sourceReverse,
       layer_velocity_mps: round(check.layerVelocity, 1),
       layer_velocity_se_mps: round(check.layerSe, 1),
-      difference_percent: round(check.difference * 100, 2),
+      difference_percent: round(check.difference * 100, 2) || 0,
       agrees: check.agrees,
     },
   };
 }
 
+/** Seconds as milliseconds to three decimals, a rounded −0 written as 0 (it reads back as 0). */
+const ms3 = (seconds: number) => { const v = round(seconds * 1e3, 3); return v === 0 ? 0 : v; };
+
 /** Additions to qc of the forward check: picks checked, the time shift carried, and every source's misfit (those off the ends included). */
 function forwardJson(forward: ForwardCheck) {
   return {
     forward_picks: forward.picks,
-    forward_time_shift_ms: round(forward.timeShift * 1e3, 3),
+    forward_time_shift_ms: ms3(forward.timeShift),
     forward_sources: forward.sources.map((s) => ({
       source_id: s.sourceId,
       source_x_m: round(s.sourceX, 3),
       off_end: s.offEnd,
       picks: s.picks,
-      rms_ms: round(s.rms * 1e3, 3),
-      mean_ms: round(s.mean * 1e3, 3),
-      ...(s.offEnd ? { beyond_spread_delays: s.corrections.map((c) => ({ layer: c.layer, delay_ms: round(c.correction * 1e3, 3), picks: c.picks })) } : {}),
+      rms_ms: ms3(s.rms),
+      mean_ms: ms3(s.mean),
+      ...(s.offEnd ? { beyond_spread_delays: s.corrections.map((c) => ({ layer: c.layer, delay_ms: ms3(c.correction), picks: c.picks })) } : {}),
     })),
   };
 }

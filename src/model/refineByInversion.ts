@@ -4,6 +4,7 @@ import type { BranchFit, Layer, RefractorPoint, Wave } from '../core/types.js';
 import { WarningLog } from '../core/warnings.js';
 import { hiddenLayerOf, type RefractorMethods } from '../depth/profiles.js';
 import { MIN_REVERSED_RECEIVERS } from './jointModel.js';
+import type { NodeSection } from './nodeSection.js';
 import { DEFAULT_SMOOTHING, layeredInversion, type InversionPick, type LayeredInversion, type LayeredInversionOptions } from './layeredInversion.js';
 
 /** The inverted section is kept only when it lowers the RMS misfit over every pick by at least this fraction… */
@@ -46,6 +47,12 @@ export interface InversionSummary {
   /** A time shift common to every pick (trigger delay), in seconds, with its standard error: fitted where the direct-wave lines miss the origin. */
   timeShift?: number;
   timeShiftSe?: number;
+  /**
+   * The inverted section itself, nodes beyond the geophones included (when kept), without its
+   * ground (the ground is straight between receivers and sources): the forward check runs
+   * through it. Plain data, so the result can be posted between threads.
+   */
+  section?: Omit<NodeSection, 'ground'>;
   /** Lateral velocity gradients, in (m/s)/m, and their standard errors (with lateralGradient). */
   gradients?: number[];
   gradientSes?: number[];
@@ -136,6 +143,8 @@ export function refineByInversion(input: RefineInput, options: false | LayeredIn
     return summary;
   }
   summary.kept = true;
+  const { nodeXs, elevations, velocities, gradients, xRef } = result.section;
+  summary.section = { nodeXs, elevations, velocities, gradients, xRef };
   summary.reason = `it lowered the RMS misfit over the ${result.picks} picks from ${before.toFixed(2)} to ${after.toFixed(2)} ms`;
   refractors.forEach((refractor, k) => {
     const startXs = new Set(refractor.points.map((p) => p.x));
