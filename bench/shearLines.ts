@@ -4,17 +4,24 @@
  */
 import { firstArrivals, seededNormal } from '../test/reference/layeredTravelTimes.js';
 import type { ShearLine, ShearShotOptions } from '../test/picking/shearRecord.js';
+import { seededUniform } from '../test/reference/realisticLines.js';
 
-/** Seeded uniform numbers in [0, 1) (mulberry32). */
-function seededUniform(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+/**
+ * A three-layer profile drawn from `uniform` (Vs 130-1300 m/s increasing downwards, Vp/Vs 1.6-2.6,
+ * Vp increasing by at least 15 % per layer), flat ground at 50 m. Both sets draw it first, in this order.
+ */
+function drawProfile(uniform: (low: number, high: number) => number): { line: ShearLine; h1: number; h2: number; vs: number[] } {
+  const vs1 = uniform(130, 260);
+  const vs2 = Math.min(650, vs1 * uniform(1.5, 2.3));
+  const vs3 = Math.min(1300, vs2 * uniform(1.7, 3));
+  const h1 = uniform(2, 6);
+  const h2 = h1 + uniform(5, 12);
+  const vs = [vs1, vs2, vs3];
+  const ratios = [uniform(1.8, 2.6), uniform(1.7, 2.4), uniform(1.6, 2.1)];
+  const vp = vs.map((v, k) => v * ratios[k]);
+  for (let k = 1; k < 3; k++) vp[k] = Math.max(vp[k], 1.15 * vp[k - 1]);
+  const line: ShearLine = { surface: () => 50, interfaces: [() => 50 - h1, () => 50 - h2], vp, vs };
+  return { line, h1, h2, vs };
 }
 
 export interface LineSetup {
@@ -30,16 +37,7 @@ export function classicSetup(seed: number): LineSetup {
   const normal = seededNormal(9000 + seed);
   const random = () => Math.min(0.999999, Math.max(0, 0.5 + normal() / 6));
   const uniform = (low: number, high: number) => low + (high - low) * random();
-  const vs1 = uniform(130, 260);
-  const vs2 = Math.min(650, vs1 * uniform(1.5, 2.3));
-  const vs3 = Math.min(1300, vs2 * uniform(1.7, 3));
-  const h1 = uniform(2, 6);
-  const h2 = h1 + uniform(5, 12);
-  const vs = [vs1, vs2, vs3];
-  const ratios = [uniform(1.8, 2.6), uniform(1.7, 2.4), uniform(1.6, 2.1)];
-  const vp = vs.map((v, k) => v * ratios[k]);
-  for (let k = 1; k < 3; k++) vp[k] = Math.max(vp[k], 1.15 * vp[k - 1]);
-  const line: ShearLine = { surface: () => 50, interfaces: [() => 50 - h1, () => 50 - h2], vp, vs };
+  const { line, h1, h2 } = drawProfile(uniform);
   const pRatio = uniform(0.15, 0.4);
   const k = seed - 1;
   const snr = [12, 20, 35][k % 3];
@@ -65,16 +63,7 @@ export function wideSetup(seed: number): LineSetup {
   const random = seededUniform(77_000 + seed);
   const uniform = (low: number, high: number) => low + (high - low) * random();
   const pick = <T>(list: T[]) => list[Math.floor(random() * list.length)];
-  const vs1 = uniform(130, 260);
-  const vs2 = Math.min(650, vs1 * uniform(1.5, 2.3));
-  const vs3 = Math.min(1300, vs2 * uniform(1.7, 3));
-  const h1 = uniform(2, 6);
-  const h2 = h1 + uniform(5, 12);
-  const vs = [vs1, vs2, vs3];
-  const ratios = [uniform(1.8, 2.6), uniform(1.7, 2.4), uniform(1.6, 2.1)];
-  const vp = vs.map((v, k) => v * ratios[k]);
-  for (let k = 1; k < 3; k++) vp[k] = Math.max(vp[k], 1.15 * vp[k - 1]);
-  const line: ShearLine = { surface: () => 50, interfaces: [() => 50 - h1, () => 50 - h2], vp, vs };
+  const { line, h1, h2, vs } = drawProfile(uniform);
   const dt = pick([0.000125, 0.00025, 0.0005, 0.001]);
   const snr = Math.exp(uniform(Math.log(5), Math.log(50)));
   const pRatio = uniform(0.1, 0.5);

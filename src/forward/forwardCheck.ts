@@ -1,7 +1,7 @@
 import type { BranchFit, Layer, RefractorPoint } from '../core/types.js';
 import { linearAt } from '../core/interpolate.js';
 import { maxOf, minOf } from '../core/extent.js';
-import { sampleNodeSection, type NodeSection } from '../model/nodeSection.js';
+import { groundAlongLine, sampleNodeSection, type NodeSection } from '../model/nodeSection.js';
 import { sectionPaths, type Shot } from '../model/sectionPaths.js';
 
 /** The forward check of one source. */
@@ -79,7 +79,7 @@ export function forwardCheck(input: ForwardCheckInput): ForwardCheck | undefined
   if (refractors.length === 0 || refractors.some((r) => r.points.length === 0) || layers.length < refractors.length + 1 || receivers.length === 0) return undefined;
   const picks = checkedPicks(fits);
   if (picks.length === 0) return undefined;
-  const ground = groundLine(receivers, fits);
+  const ground = groundAlongLine(receivers, fits.map((f) => ({ x: f.branch.sourceX, elev: f.branch.sourceElev })));
   const allX = picks.flatMap((p) => [p.sourceX, p.receiverX]);
   const nodeXs = nodesAlong(receivers.map((r) => r.x), minOf(allX), maxOf(allX), spacing);
   const section: NodeSection = input.section !== undefined ? { ...input.section, ground } : {
@@ -181,17 +181,6 @@ export function checkedPicks(fits: BranchFit[]): CheckedPick[] {
     });
   }
   return picks;
-}
-
-/** Ground elevation along the line: straight between the receivers and the sources, end values beyond. */
-function groundLine(receivers: { x: number; elev: number }[], fits: BranchFit[]): (x: number) => number {
-  const byX = new Map<number, number>();
-  for (const f of fits) byX.set(f.branch.sourceX, f.branch.sourceElev);
-  for (const r of receivers) byX.set(r.x, r.elev);
-  const sorted = [...byX.entries()].sort((a, b) => a[0] - b[0]);
-  const xs = sorted.map(([x]) => x);
-  const elevations = sorted.map(([, e]) => e);
-  return (x) => linearAt(xs, elevations, x);
 }
 
 /**

@@ -19,6 +19,37 @@ export interface NodeSection {
   xRef: number;
 }
 
+/**
+ * Ground elevation along a line from its receivers and sources: linear between them, the end
+ * values held beyond. A receiver's elevation wins over a source's at the same x. Found by
+ * bisection, since the section asks for it at every sample of every trial section.
+ *
+ * @param receivers - receiver positions and ground elevations, in metres
+ * @param sources - source positions and elevations, in metres
+ */
+export function groundAlongLine(receivers: { x: number; elev: number }[], sources: { x: number; elev: number }[]): (x: number) => number {
+  const byX = new Map<number, number>();
+  for (const s of sources) byX.set(s.x, s.elev);
+  for (const r of receivers) byX.set(r.x, r.elev);
+  const sorted = [...byX.entries()].sort((a, b) => a[0] - b[0]);
+  const xs = sorted.map(([x]) => x);
+  const elevations = sorted.map(([, e]) => e);
+  const last = xs.length - 1;
+  return (x) => {
+    if (x <= xs[0]) return elevations[0];
+    if (x >= xs[last]) return elevations[last];
+    let low = 0;
+    let high = last;
+    while (high - low > 1) {
+      const mid = (low + high) >> 1;
+      if (xs[mid] <= x) low = mid;
+      else high = mid;
+    }
+    const t = (x - xs[low]) / (xs[high] - xs[low]);
+    return elevations[low] * (1 - t) + elevations[high] * t;
+  };
+}
+
 /** Thinnest a layer may become at a sample, in metres (refractors never touch or cross). */
 export const MIN_SAMPLE_THICKNESS = 0.05;
 

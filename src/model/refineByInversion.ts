@@ -1,10 +1,9 @@
-import { linearAt } from '../core/interpolate.js';
 import { checkLayerCautions } from '../core/cautions.js';
 import type { BranchFit, Layer, RefractorPoint, Wave } from '../core/types.js';
 import { WarningLog } from '../core/warnings.js';
 import { hiddenLayerOf, type RefractorMethods } from '../depth/profiles.js';
 import { MIN_REVERSED_RECEIVERS } from './jointModel.js';
-import type { NodeSection } from './nodeSection.js';
+import { groundAlongLine, type NodeSection } from './nodeSection.js';
 import { DEFAULT_SMOOTHING, layeredInversion, type InversionPick, type LayeredInversion, type LayeredInversionOptions } from './layeredInversion.js';
 
 /** The inverted section is kept only when it lowers the RMS misfit over every pick by at least this fraction… */
@@ -103,7 +102,7 @@ export function refineByInversion(input: RefineInput, options: false | LayeredIn
     log.add('inversion-not-kept', `the layered inversion was not run: ${reason}; the depths shown are from the delay-time methods`);
     return { ...base, reason, picks: picks.length };
   }
-  const ground = groundOf(receivers, fits);
+  const ground = groundAlongLine(receivers, fits.map((f) => ({ x: f.branch.sourceX, elev: f.branch.sourceElev })));
   const receiverXs = receivers.map((r) => r.x);
   let result: LayeredInversion;
   try {
@@ -221,30 +220,6 @@ export function fittedPicks(fits: BranchFit[]): InversionPick[] {
     }
   }
   return picks;
-}
-
-/** Ground elevation along the line from the receivers and the sources (linear between them, end values beyond). */
-function groundOf(receivers: { x: number; elev: number }[], fits: BranchFit[]): (x: number) => number {
-  const byX = new Map<number, number>();
-  for (const f of fits) byX.set(f.branch.sourceX, f.branch.sourceElev);
-  for (const r of receivers) byX.set(r.x, r.elev);
-  const sorted = [...byX.entries()].sort((a, b) => a[0] - b[0]);
-  const xs = sorted.map(([x]) => x);
-  const elevations = sorted.map(([, e]) => e);
-  const last = xs.length - 1;
-  return (x) => {
-    if (x <= xs[0] || x >= xs[last]) return linearAt(xs, elevations, x);
-    // Bisection: the ground is asked for at every sample of every trial section.
-    let low = 0;
-    let high = last;
-    while (high - low > 1) {
-      const mid = (low + high) >> 1;
-      if (xs[mid] <= x) low = mid;
-      else high = mid;
-    }
-    const t = (x - xs[low]) / (xs[high] - xs[low]);
-    return elevations[low] * (1 - t) + elevations[high] * t;
-  };
 }
 
 const round = (v: number, d: number) => Number(v.toFixed(d));

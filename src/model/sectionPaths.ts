@@ -28,15 +28,15 @@ export interface SectionPaths {
 }
 
 // Sideways reach of a straight leg through a layer, in layer thicknesses: a flatter leg is never
-// faster than a head wave along the layer's floor or the route above it (as in forward/sectionTimes).
+// faster than a head wave along the layer's floor or the route above it.
 const REACH_THICKNESSES = 3;
 
 /**
  * First-arrival times through a node section by Fermat's principle over the sampled refractors:
  * straight legs through each layer, travel along a refractor at the speed of the layer beneath it
  * (head waves), the direct wave along the ground, the least total time by dynamic programming over
- * the samples (as forward/sectionTimes, with the leg times through each layer tabulated once for
- * every shot and with back-pointers). Sources anywhere on the ground, off the ends of the
+ * the samples (the leg times through each layer tabulated once for every shot, with
+ * back-pointers). Sources anywhere on the ground, off the ends of the
  * receivers included, and ground of any shape.
  *
  * With `derivatives`, the least-time path of each arrival is traced back and its time
