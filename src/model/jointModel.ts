@@ -194,20 +194,23 @@ export function jointModel(fits: BranchFit[], spacing: number): JointModel | und
     }
     best.set(count, chosen!);
   }
+  // The pick noise measured from the picks themselves (second differences along the branches),
+  // when there are enough of them: the count is then chosen with the variance known (countValue).
+  const noise = pickNoise(fits, spacing, [], NaN);
+  const sigma = noise.secondDifferences !== undefined && noise.secondDifferences.count >= MIN_TRIPLES ? Math.max(noise.sigma, MIN_TEST_NOISE) : undefined;
+  const countOf = (c: Candidate) => countValue(c.model, sigma);
   const candidates: CountCandidate[] = [...best.entries()].sort((a, b) => a[0] - b[0]).map(([refractors, c]) => ({
-    refractors, value: c.rejected ? undefined : c.value, rss: c.model.rss, parameters: c.model.parameters, iterations: c.iterations, ...(c.rejected ? { rejected: c.rejected } : {}),
+    refractors, value: c.rejected ? undefined : countOf(c), rss: c.model.rss, parameters: c.model.parameters, iterations: c.iterations, ...(c.rejected ? { rejected: c.rejected } : {}),
   }));
   const valid = [...best.entries()].filter(([, c]) => c.rejected === undefined);
   // With every candidate rejected, the one-refractor model stands (its velocities are reported and warned about).
-  const [count, chosen] = valid.length > 0 ? valid.reduce((a, b) => (b[1].value < a[1].value ? b : a)) : [1, best.get(1)!];
+  const [count, chosen] = valid.length > 0 ? valid.reduce((a, b) => (countOf(b[1]) < countOf(a[1]) ? b : a)) : [1, best.get(1)!];
 
   const final = { ...chosen, model: solve(chosen.arrival, count, true)! };
   const possible: PossibleRefractor[] = [];
   let refractors = count;
   if (count >= 2) {
     const below = best.get(count - 1)!;
-    const noise = pickNoise(fits, spacing, [], NaN);
-    const sigma = noise.secondDifferences !== undefined && noise.secondDifferences.count >= MIN_TRIPLES ? Math.max(noise.sigma, MIN_TEST_NOISE) : undefined;
     const test = deepestTest(final.model, final.arrival, count, picks, refs, fits, sourceIds, below.rejected === undefined ? bicOf(below.model, sigma) - bicOf(chosen.model, sigma) : Infinity);
     if (test.failed.length > 0) {
       possible.push(test);
@@ -255,7 +258,24 @@ function medianOffsets(arrival: Int8Array, refractors: number, picks: ModelPick[
 }
 
 /** Name of the layer-count criterion, as the JSON reports it. */
-export const COUNT_CRITERION = 'Hannan-Quinn: n ln(rss/n) + 2 p ln ln n, p = slownesses + time terms';
+export const COUNT_CRITERION = 'Hannan-Quinn: rss/σ² + 2 p ln ln n with σ the pick noise from second differences (n ln(rss/n) + 2 p ln ln n where too few), p = slownesses + time terms';
+
+/**
+ * The layer-count criterion of a candidate: rss / σ² + 2 p ln ln n with σ the pick noise measured
+ * from the picks (second differences along the branches, model/pickNoise.ts), the form of an
+ * information criterion with the variance known (Hannan & Quinn 1979; Burnham & Anderson 2002,
+ * Model Selection and Multimodel Inference, §2.2 for the known-variance form); without enough
+ * triples to measure σ, n ln(rss / n) + 2 p ln ln n. The estimated form takes each candidate's own
+ * misfit for the noise: a candidate with one refractor too few on a water-table line (the
+ * saturated layer's picks given to the rock) left residuals well above the pick noise, yet its
+ * n ln(rss/n) fell by less than the cost of the saturated layer's time terms (seed 37 of
+ * test/reference/sweep: three layers found with the known variance, two before).
+ */
+function countValue(model: { rss: number; used: number; parameters: number }, sigma?: number): number {
+  const n = model.used;
+  const misfit = sigma === undefined ? n * Math.log(model.rss / n) : model.rss / (sigma * sigma);
+  return misfit + model.parameters * penalty(n);
+}
 
 /**
  * Penalty per parameter of the layer-count criterion for n picks: 2 ln ln n (Hannan & Quinn 1979,
