@@ -138,7 +138,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   // The layered inversion: kept (and recommended) only when it explains the picks better.
   const inversion = refineByInversion({ fits, layers: usable, refractors, receivers, spacing, wave, pickNoise: noise.sigma }, options.inversion, log);
   if (inversion !== undefined) {
-    history.push({ step: 'inversion', parameters: { method: 'Levenberg-Marquardt (Levenberg 1944; Marquardt 1963)', kept: inversion.kept, smoothing: inversion.smoothing, node_spacing_m: inversion.nodeSpacing, lateral_gradient: inversion.lateralGradient, iterations: inversion.iterations, keep_margin: `RMS lower by ${KEEP_MARGIN * 100} % and ${KEEP_MARGIN_SECONDS * 1e3} ms`, time_shift: inversion.timeShift !== undefined } });
+    history.push({ step: 'inversion', parameters: { method: 'Levenberg-Marquardt (Levenberg 1944; Marquardt 1963)', kept: inversion.kept, smoothing: inversion.smoothing, node_spacing_m: inversion.nodeSpacing, lateral_gradient: inversion.lateralGradient, iterations: inversion.iterations, keep_margin: `RMS lower by ${KEEP_MARGIN * 100} % and ${(KEEP_MARGIN_SECONDS * 1e3).toFixed(2)} ms`, time_shift: inversion.timeShift !== undefined } });
   }
   // The final layer velocities against the GRM velocity analysis of each refractor.
   const velocityAnalysis = velocityAnalysisCheck(refractors, usable, log);

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { realisticCsv, realisticLine, type LineChoices, type RealisticLine } from './reference/realisticLines.js';
 import { interpretCsv } from './helpers.js';
+import { summary } from '../src/report/summary.js';
 
 // Realistic lines from the independent forward model (test/reference/layeredTravelTimes.ts, least
 // time by Fermat's principle over sampled interfaces, sharing no code with src/) with seeded pick
@@ -72,5 +73,30 @@ describe('interpret on realistic lines from an independent forward model with 0.
       expect(o.velocityErrors[0], o.line.name).toBeLessThan(0.03);
       expect(o.velocityErrors[o.velocityErrors.length - 1], o.line.name).toBeLessThan(0.05);
     }
+  });
+});
+
+describe('interpret on a short spread whose rock head wave is seen on a few geophones only', () => {
+  // Line 80 of the sweep (test/reference/sweep/sweep.ts, the independent forward model): 24
+  // geophones at 2 m, sources at the ends and the middle, 494 m/s over 2214 m/s rock undulating
+  // about 11.8 m down. The crossover distance 2h √((V2 + V1)/(V2 − V1)) = 29.6 m (Telford et al.
+  // 1990, §4.3, worked by hand) leaves the rock first on the last 8 geophones of each end shot, and
+  // its relief makes the forward ones come earlier with offset: no velocity can be had from them.
+  const line = realisticLine(80);
+  const { result } = interpretCsv(realisticCsv(line, 80));
+
+  it('interpret(line 80) reports no layer whose velocity is not positive and finite, and no depths', () => {
+    for (const l of result.layers) expect(l.velocity > 0 && Number.isFinite(l.velocity), `layer ${l.index}: ${l.velocity} m/s`).toBe(true);
+    expect(result.layers.map((l) => l.index)).toEqual([1]);
+    expect(Math.abs(result.layers[0].velocity / 493.96 - 1)).toBeLessThan(0.03); // the issue's 3 %
+    expect(result.refractors).toHaveLength(0);
+  });
+
+  it('interpret(line 80) says why layer 2 was left out (unresolved-layer), and the summary does not call it a direct-wave line', () => {
+    const warning = result.warnings.find((w) => w.code === 'unresolved-layer');
+    expect(warning?.layer).toBe(2);
+    const text = summary(result, 'm');
+    expect(text).toContain('No refractor with depths: later arrivals were seen');
+    expect(text).not.toContain('the picks fit a single line');
   });
 });

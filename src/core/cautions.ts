@@ -123,3 +123,10 @@ export function checkShearTopLayer(layers: Layer[], wave: Wave, warnings: Warnin
     si`layer 1 of this S-wave line has Vs ${vel(top.velocity)}, above ${vel(SHEAR_TOP_LAYER_MAX)}, the lower bound of site class B (rock) in ASCE 7-16 Table 20.3-1. Unless rock is exposed at the surface, a direct shear wave this fast is unlikely in soil and the picks are probably on the P arrival, which comes first and weaker on horizontal geophones: check the picks against the records, or against a P-wave line over the same ground`,
     { layer: 1 });
 }
+
+/**
+ * Warning codes that say a later arrival was seen but left without depths (no velocity, slower than
+ * the layer above, or too thin a refractor): with no refractor left, the summary and the report
+ * then say so instead of "the direct wave alone".
+ */
+export const LEFT_OUT = new Set(['unresolved-layer', 'velocity-inversion', 'possible-refractor']);

@@ -5,7 +5,8 @@ import { startsAtSource } from './branches.js';
 import { solveInterface, type PlaneInterface } from './dippingLayers.js';
 import type { BranchFit, Layer, Segment } from '../core/types.js';
 import type { WarningLog } from '../core/warnings.js';
-import { maxOf, pushAll } from '../core/extent.js';
+import { maxOf, minOf, pushAll } from '../core/extent.js';
+import { len, si } from '../core/siText.js';
 
 /**
  * A segment whose apparent velocity differs from the median of its layer by more than this factor
@@ -185,6 +186,20 @@ export function layerVelocities(fits: BranchFit[], layerCount: number, warnings:
     const solved = fwd !== undefined && rev !== undefined && v1 !== undefined
       ? recursion([...above, { slowness: [fwd.mean, rev.mean], slownessSe: [fwd.se, rev.se] }], v1, v1Se)
       : undefined;
+    // Without a ray solution, a side whose picks on this layer do not come later with offset
+    // (slowness zero or negative) defines no velocity: the up-dip apparent slowness sin(θc − δ)/V1
+    // is negative only where the dip δ exceeds the critical angle θc (Telford et al. 1990, §4.3),
+    // which only the ray solution above can take; the harmonic mean and a one-sided apparent
+    // velocity assume a small dip. The layer and those below it are left out, and said so.
+    const backwards = solved !== undefined ? [] : ([['forward', fwd], ['reverse', rev]] as const).filter(([, m]) => m !== undefined && !(m.mean > 0));
+    if (backwards.length > 0) {
+      const offsets = fits.flatMap((f) => f.segments.filter((s) => s.layer === k).flatMap((s) => [s.firstOffset, s.lastOffset]));
+      const [side, m] = backwards[0];
+      warnings.add('unresolved-layer',
+        si`the picks given to layer ${k} on the ${side} branches (offsets ${len(minOf(offsets), 0)} to ${len(maxOf(offsets), 0)}) do not arrive later as the offset grows (their apparent velocity is ${m!.mean === 0 ? 'infinite' : 'negative'}): they define no layer velocity, so layer ${k}${k < layerCount ? ' and those below it are' : ' is'} not reported and no depth is computed to ${k < layerCount ? 'them' : 'it'}. Such picks come from a refractor whose relief is large against the spread, or from mispicks: check them, and lengthen the spread or shoot off both ends to record the refractor over more geophones`,
+        { layer: k });
+      break;
+    }
     if (fwd !== undefined && rev !== undefined && solved !== undefined) {
       layers.push({
         index: k,

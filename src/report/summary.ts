@@ -1,4 +1,4 @@
-import { hiddenLayerText } from '../core/cautions.js';
+import { hiddenLayerText, LEFT_OUT } from '../core/cautions.js';
 import { fromMetres, velocityLabel, type LengthUnit } from '../core/units.js';
 import type { InterpretationResult } from '../interpret.js';
 import { VERSION } from '../interpret.js';
@@ -47,7 +47,10 @@ export function summary(result: InterpretationResult, unit: LengthUnit): string 
   ).map((s) => `  ${s}`));
   out.push('');
   if (result.refractors.length === 0) {
-    out.push('No refractor: the picks fit a single line (the direct wave), so there is no depth to report.');
+    const leftOut = result.warnings.some((w) => LEFT_OUT.has(w.code));
+    out.push(leftOut
+      ? 'No refractor with depths: later arrivals were seen, but none gives a refractor whose depth can be computed (see the warnings below), so there is no depth to report.'
+      : 'No refractor: the picks fit a single line (the direct wave), so there is no depth to report.');
   }
   for (const r of result.refractors) {
     const top = result.layers[r.index];

@@ -228,6 +228,40 @@ describe('layerVelocities on hand-built branch fits', () => {
   });
 });
 
+describe('layerVelocities on a layer whose picks come earlier with offset', () => {
+  // Apparent slownesses of a plane refractor: down-dip sin(θc + δ)/V1, up-dip sin(θc − δ)/V1
+  // (Telford et al. 1990, §4.3), so θc = ½[asin(V1 sf) + asin(V1 sr)]. With V1 = 500 m/s,
+  // sf = −1/2000 and sr = 1/20000 s/m: θc = ½[asin(−0.25) + asin(0.025)] = −0.114 rad < 0, no plane
+  // refractor gives them, and the harmonic mean would be 2/(sf + sr) = −4444 m/s (by hand).
+  const direct = (id: string, x0: number, side: Side) =>
+    fitOf(id, x0, side, [2, 4, 6, 8].map((d) => ({ x: x0 + (side === 'forward' ? d : -d), elev: 0, t: d / 500 })),
+      [{ layer: 1, slowness: 1 / 500, slownessSe: 1e-6, intercept: 0, interceptSe: 1e-4 }]);
+  const head = (id: string, x0: number, side: Side, s: number) =>
+    fitOf(id, x0, side, [30, 34, 38, 42].map((d) => ({ x: x0 + (side === 'forward' ? d : -d), elev: 0, t: 0.05 + d * s })),
+      [{ layer: 2, slowness: s, slownessSe: 1e-6, intercept: 0.05 }]);
+
+  it('layerVelocities(forward slowness −1/2000 s/m, reverse 1/20000) reports layer 1 only and an unresolved-layer warning naming layer 2, the side and the offsets', () => {
+    const log = new WarningLog();
+    const layers = layerVelocities([direct('S1', 0, 'forward'), direct('S2', 46, 'reverse'), head('S1', 0, 'forward', -1 / 2000), head('S2', 46, 'reverse', 1 / 20000)], 2, log);
+    expect(layers.map((l) => l.index)).toEqual([1]);
+    expect(layers[0].velocity).toBeCloseTo(500, 6);
+    const warning = log.items.find((w) => w.code === 'unresolved-layer');
+    expect(warning?.layer).toBe(2);
+    expect(warning?.message).toContain('forward branches');
+    expect(warning?.message).toContain('offsets 30 m to 42 m');
+  });
+
+  it('layerVelocities(both slownesses positive, 1/2200 and 1/2500 s/m) keeps layer 2 with a positive velocity and no unresolved-layer warning', () => {
+    const log = new WarningLog();
+    const layers = layerVelocities([direct('S1', 0, 'forward'), direct('S2', 46, 'reverse'), head('S1', 0, 'forward', 1 / 2200), head('S2', 46, 'reverse', 1 / 2500)], 2, log);
+    expect(layers.map((l) => l.index)).toEqual([1, 2]);
+    // Flat-layer limit of the dipping formulas: V2 between the apparent velocities 2200 and 2500 m/s.
+    expect(layers[1].velocity).toBeGreaterThan(2200);
+    expect(layers[1].velocity).toBeLessThan(2500);
+    expect(log.items.some((w) => w.code === 'unresolved-layer')).toBe(false);
+  });
+});
+
 describe('assignLayers on hand-built branch fits', () => {
   // A flat refractor, 500 over 2000 m/s: near-source branches see the direct wave (intercept 0)
   // and then the head wave; off-end branches (sources 20 m beyond the first receiver) the head wave only.

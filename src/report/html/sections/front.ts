@@ -1,4 +1,4 @@
-import { WATER_TABLE_VP_MAX, WATER_TABLE_VP_MIN } from '../../../core/cautions.js';
+import { LEFT_OUT, WATER_TABLE_VP_MAX, WATER_TABLE_VP_MIN } from '../../../core/cautions.js';
 import { JOB_FIELDS } from '../../../io/jobDetails.js';
 import { escapeHtml } from '../escape.js';
 import type { Figures } from '../figures.js';
@@ -53,7 +53,11 @@ export function summarySection(input: ReportInput, fig: Figures): string {
     else if (deepest) role = ': <strong>probable rock head</strong>, on velocity alone, to be confirmed by borings';
     items.push(`<li>Refractor ${r.index} (${wave === 'S' ? 'Vs' : 'Vp'} ${fig.withUnit('velocity', () => fig.pm(`layers.${r.index}.velocity_mps`, `layers.${r.index}.velocity_se_mps`, 0))}): ${range}${role}.</li>`);
   });
-  if (refractors.length === 0) items.push('<li>No refractor was found: the first breaks fit the direct wave alone, so no depth can be reported.</li>');
+  if (refractors.length === 0) {
+    items.push(warnings.some((w) => LEFT_OUT.has(w.code))
+      ? '<li>No refractor with depths: later arrivals were seen, but none gives a refractor whose depth can be computed (see the warnings), so no depth can be reported.</li>'
+      : '<li>No refractor was found: the first breaks fit the direct wave alone, so no depth can be reported.</li>');
+  }
   if (wave === 'P' && waterRefractors.size === 0) items.push(`<li>Water table: no refractor in the band of saturated soil (${fig.plain('velocity', [WATER_TABLE_VP_MIN, WATER_TABLE_VP_MAX], 0, '–')}) was seen; a water table inside a layer, or below the deepest refractor, would not show.</li>`);
   if (wave === 'S') items.push('<li>Water table: shear waves are not sped up by pore water, so an S-wave line does not show it.</li>');
   const site = fig.get('site') as { estimated: boolean; classes: { standard: string; class: string; borderline: boolean; neighbour?: string }[] } | undefined;
