@@ -48,6 +48,11 @@ export interface InterpretOptions extends BranchChoices {
    * false to switch it off. Default on, with the defaults of LayeredInversionOptions.
    */
   inversion?: false | LayeredInversionOptions;
+  /**
+   * Most refractors the joint model may choose. interpret sets it itself when its check through
+   * the layered inversion finds the deepest refractor not needed (see deepestNeeded).
+   */
+  maxRefractors?: number;
 }
 
 export interface InterpretationResult extends Interpretation {
@@ -87,6 +92,7 @@ export interface InterpretationResult extends Interpretation {
 export function interpret(table: FirstBreakTable, options: InterpretOptions = {}, log: WarningLog = new WarningLog()): InterpretationResult {
   const wave: Wave = options.wave ?? table.wave ?? 'P';
   const history: Interpretation['history'] = [];
+  const logStart = log.items.length;
   const branches = splitBranches(table.picks, log, { file: table.file, allowShortBranches: options.allowShortBranches });
   history.push({ step: 'split_branches', parameters: { branches: branches.length, allow_short_branches: options.allowShortBranches ?? false } });
 
@@ -100,7 +106,7 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
 
   const layerCount = assignLayers(segmentFits, spacing, log);
   const userFixed = Object.keys(options.segments ?? {}).length > 0 || Object.keys(options.breakpoints ?? {}).length > 0;
-  const joint = options.jointModel === false || userFixed ? undefined : jointModel(segmentFits, spacing);
+  const joint = options.jointModel === false || userFixed ? undefined : jointModel(segmentFits, spacing, { maxRefractors: options.maxRefractors });
   const fits = joint?.fits ?? segmentFits;
   let layers: Layer[];
   if (joint !== undefined) {
@@ -139,6 +145,22 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   const inversion = refineByInversion({ fits, layers: usable, refractors, receivers, spacing, wave, pickNoise: noise.sigma }, options.inversion, log);
   if (inversion !== undefined) {
     history.push({ step: 'inversion', parameters: { method: 'Levenberg-Marquardt (Levenberg 1944; Marquardt 1963)', kept: inversion.kept, smoothing: inversion.smoothing, node_spacing_m: inversion.nodeSpacing, lateral_gradient: inversion.lateralGradient, iterations: inversion.iterations, keep_margin: `RMS lower by ${KEEP_MARGIN * 100} % and ${(KEEP_MARGIN_SECONDS * 1e3).toFixed(2)} ms`, time_shift: inversion.timeShift !== undefined } });
+  }
+  // The deepest refractor against the best model without it, both through the layered inversion.
+  if (joint?.alternative !== undefined && inversion?.kept) {
+    const check = deepestNeeded(joint.alternative, joint.refractors, inversion, { receivers, spacing, wave, pickNoise, sigma: noise.sigma }, options.inversion);
+    if (check !== undefined && !check.needed) {
+      log.items.length = logStart;
+      const rerun = interpret(table, { ...options, maxRefractors: joint.refractors - 1 }, log);
+      const upper = usable[joint.refractors - 1]?.velocity ?? NaN;
+      const lower = usable[joint.refractors]?.velocity ?? NaN;
+      log.add('refractor-not-needed',
+        si`the picks were also fitted with one refractor more (layer ${joint.refractors} of ${vel(upper)} over layer ${joint.refractors + 1} of ${vel(lower)}); through the layered inversion that section explains them no better, for the unknowns it adds, than the one reported (RMS ${(check.with.rms * 1e3).toFixed(2)} ms with it against ${(check.without.rms * 1e3).toFixed(2)} ms without, pick noise ${(noise.sigma * 1e3).toFixed(2)} ms, judged by an information criterion that charges each added unknown, Hannan & Quinn 1979), so the extra refractor is left out. Relief on a refractor, such as a channel or a step, can bend the travel times like a deeper layer: confirm the layering with a boring or a longer spread before relying on it`,
+        { layer: joint.refractors + 1 });
+      rerun.history.splice(rerun.history.findIndex((h) => h.step === 'inversion') + 1, 0, { step: 'refractor_check', parameters: { refractor: joint.refractors, needed: false, rms_with_ms: Number((check.with.rms * 1e3).toFixed(3)), rms_without_ms: Number((check.without.rms * 1e3).toFixed(3)), criterion: COUNT_CHECK } });
+      return rerun;
+    }
+    if (check !== undefined) history.push({ step: 'refractor_check', parameters: { refractor: joint.refractors, needed: true, rms_with_ms: Number((check.with.rms * 1e3).toFixed(3)), rms_without_ms: Number((check.without.rms * 1e3).toFixed(3)), criterion: COUNT_CHECK } });
   }
   // The final layer velocities against the GRM velocity analysis of each refractor.
   const velocityAnalysis = velocityAnalysisCheck(refractors, usable, log);
@@ -190,6 +212,44 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
     inversion,
     velocityAnalysis,
   };
+}
+
+/** The criterion of the deepest-refractor check, as the history and the warning name it. */
+export const COUNT_CHECK = 'rss/σ² + 2 p ln ln n over the inverted sections, p their effective unknowns (Hannan & Quinn 1979)';
+
+/**
+ * Whether the deepest refractor is needed: the best joint model with one refractor fewer
+ * (`alternative`, its deepest two merged) goes through the same depth methods and layered
+ * inversion, and each inverted section is scored by rss / σ² + 2 p ln ln n over every pick, σ the
+ * pick noise measured from the picks and p the effective number of unknowns the picks resolve
+ * (trace of the resolution matrix), the criterion the joint model counts its refractors by
+ * (Hannan & Quinn 1979), here on sections that bend their refractors where the time terms could
+ * not: the least-time paths of a refractor with a channel or a step carry its delay past the
+ * geophones above it, which per-geophone time terms read as a deeper layer (sweep seed 119,
+ * test/reference/sweep). The refractor is needed unless the section without it scores as well or
+ * better. Undefined when the section without it cannot be had (no depths, inversion not run).
+ */
+function deepestNeeded(
+  alternative: BranchFit[], count: number, chosen: InversionSummary,
+  context: { receivers: { x: number; elev: number }[]; spacing: number; wave: Wave; pickNoise: number; sigma: number },
+  options: InterpretOptions['inversion'],
+): { needed: boolean; with: { rms: number; value: number }; without: { rms: number; value: number } } | undefined {
+  const scratch = new WarningLog();
+  const layers = usableLayers(layerVelocities(alternative, count, scratch));
+  if (layers.length < count) return undefined;
+  const intercept = interceptTimeDepths(alternative, layers, scratch);
+  const refractors = refractorProfiles({ fits: alternative, layers, interceptPoints: intercept, receivers: context.receivers, spacing: context.spacing, pickNoise: context.pickNoise }, scratch);
+  const fewer = refineByInversion({ fits: alternative, layers, refractors, receivers: context.receivers, spacing: context.spacing, wave: context.wave, pickNoise: context.sigma }, options, scratch);
+  const score = (s: InversionSummary | undefined) => {
+    if (s === undefined || s.rmsAfter === undefined || s.rmsBefore === undefined || s.effectiveUnknowns === undefined) return undefined;
+    const rms = s.kept ? s.rmsAfter : Math.min(s.rmsBefore, s.rmsAfter);
+    const n = s.picks;
+    return { rms, value: (n * rms * rms) / (context.sigma * context.sigma) + 2 * Math.log(Math.log(n)) * s.effectiveUnknowns, n };
+  };
+  const withIt = score(chosen);
+  const without = score(fewer);
+  if (withIt === undefined || without === undefined || withIt.n !== without.n) return undefined;
+  return { needed: without.value > withIt.value, with: withIt, without };
 }
 
 /** Confidence of each pick where the table has a `confidence` column (0-1), as `pick` writes it. */

@@ -100,3 +100,30 @@ describe('interpret on a short spread whose rock head wave is seen on a few geop
     expect(text).not.toContain('the picks fit a single line');
   });
 });
+
+describe('interpret checks its deepest refractor through the layered inversion', () => {
+  // Lines of the sweep (test/reference/sweep/sweep.ts, the independent forward model). Line 119:
+  // 48 geophones at 2.5 m, sources at the ends and the middle, 614 m/s over 3046 m/s rock 19.2 m
+  // down with a channel 3 m deep in it: the delay of the channel reaches the geophones past it by
+  // the least-time paths, and per-geophone time terms read it as a third layer of 2463 m/s. Line 9:
+  // a water table 3.4 m down (1510 m/s) over rock at 21.1 m (4516 m/s), a real third layer.
+  it('interpret(line 119, two layers and a channel) reports two layers and says why the third was left out (refractor-not-needed)', () => {
+    const { result } = interpretCsv(realisticCsv(realisticLine(119), 119));
+    expect(result.layers).toHaveLength(2);
+    const warning = result.warnings.find((w) => w.code === 'refractor-not-needed');
+    expect(warning?.layer).toBe(3);
+    expect(result.history.find((h) => h.step === 'refractor_check')?.parameters.needed).toBe(false);
+    // The rock head 19.2 m down (the channel aside): the recommended profile's median depth within 10 % (the sweep's target).
+    const depths = result.refractors[0].points.map((p) => p.depth).sort((a, b) => a - b);
+    expect(Math.abs(depths[depths.length >> 1] / 19.2 - 1)).toBeLessThan(0.1);
+  });
+
+  it('interpret(line 9, a water table over rock) keeps its three layers: the check finds the rock needed', () => {
+    const line = realisticLine(9);
+    const { result } = interpretCsv(realisticCsv(line, 9));
+    expect(result.layers).toHaveLength(3);
+    line.section.velocities.forEach((v, i) => expect(Math.abs(result.layers[i].velocity / v - 1), `layer ${i + 1}`).toBeLessThan(0.03));
+    expect(result.history.find((h) => h.step === 'refractor_check')?.parameters.needed).toBe(true);
+    expect(result.warnings.some((w) => w.code === 'refractor-not-needed')).toBe(false);
+  });
+});

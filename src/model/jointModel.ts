@@ -63,6 +63,12 @@ export interface JointModel {
   /** Arrival of each pick (0 = direct wave, k = refractor k). */
   arrival: Int8Array;
   model: TimeTermModel;
+  /**
+   * Branch fits of the best model with one refractor fewer (its deepest two merged), when the
+   * chosen model has two or more refractors with depths: interpret checks the deepest refractor
+   * against it through the layered inversion.
+   */
+  alternative?: BranchFit[];
   /** Refractors that get depths (the model may hold one more, a possible refractor). */
   refractors: number;
   possible: PossibleRefractor[];
@@ -111,7 +117,7 @@ interface Candidate {
  * @param spacing - receiver spacing, in metres
  * @returns undefined when the segments have no direct wave or no refractor
  */
-export function jointModel(fits: BranchFit[], spacing: number): JointModel | undefined {
+export function jointModel(fits: BranchFit[], spacing: number, options: { maxRefractors?: number } = {}): JointModel | undefined {
   const { geometry, sourceIds, picks, refs, orders, initial, fixed } = observations(fits, spacing);
   if (!initial.some((a) => a === 0)) return undefined;
   const compacted = compact(initial);
@@ -202,7 +208,8 @@ export function jointModel(fits: BranchFit[], spacing: number): JointModel | und
   const candidates: CountCandidate[] = [...best.entries()].sort((a, b) => a[0] - b[0]).map(([refractors, c]) => ({
     refractors, value: c.rejected ? undefined : countOf(c), rss: c.model.rss, parameters: c.model.parameters, iterations: c.iterations, ...(c.rejected ? { rejected: c.rejected } : {}),
   }));
-  const valid = [...best.entries()].filter(([, c]) => c.rejected === undefined);
+  const most = options.maxRefractors ?? Infinity;
+  const valid = [...best.entries()].filter(([r, c]) => c.rejected === undefined && r <= most);
   // With every candidate rejected, the one-refractor model stands (its velocities are reported and warned about).
   const [count, chosen] = valid.length > 0 ? valid.reduce((a, b) => (countOf(b[1]) < countOf(a[1]) ? b : a)) : [1, best.get(1)!];
 
@@ -219,8 +226,11 @@ export function jointModel(fits: BranchFit[], spacing: number): JointModel | und
   }
   let reassigned = 0;
   for (let i = 0; i < initial.length; i++) if (initial[i] !== final.arrival[i]) reassigned++;
+  // The best model with one refractor fewer, for the check through the layered inversion (interpret).
+  const fewer = refractors === count && count >= 2 ? best.get(count - 1) : undefined;
+  const alternative = fewer !== undefined && fewer.rejected === undefined ? rebuildFits(fits, fewer.arrival, refs, fewer.model) : undefined;
   return {
-    geometry, sourceIds, picks, arrival: final.arrival, model: final.model, refractors, possible, candidates,
+    geometry, sourceIds, picks, arrival: final.arrival, model: final.model, refractors, possible, candidates, alternative,
     iterations: final.iterations, converged: final.converged, reassigned,
     fits: rebuildFits(fits, final.arrival, refs, final.model), refs,
   };
