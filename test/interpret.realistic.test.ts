@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { realisticCsv, realisticLine, type LineChoices, type RealisticLine } from './reference/realisticLines.js';
+import { syntheticCsv } from './reference/layeredTravelTimes.js';
 import { interpretCsv } from './helpers.js';
 import { summary } from '../src/report/summary.js';
 
@@ -125,5 +126,26 @@ describe('interpret checks its deepest refractor through the layered inversion',
     line.section.velocities.forEach((v, i) => expect(Math.abs(result.layers[i].velocity / v - 1), `layer ${i + 1}`).toBeLessThan(0.03));
     expect(result.history.find((h) => h.step === 'refractor_check')?.parameters.needed).toBe(true);
     expect(result.warnings.some((w) => w.code === 'refractor-not-needed')).toBe(false);
+  });
+});
+
+describe('interpret warns where a layer velocity rests on head waves recorded from both directions at few geophones', () => {
+  // 600 m/s soil over a water table at 2.5 m (1500 m/s) over 2600 m/s rock at 14 m, 72 geophones
+  // at 1 m, sources at the ends, quarter points and middle: the rock's head waves reach the
+  // geophones past x = 45 m from the shot at 0 and those short of 27 m from the shot at 71
+  // (crossover distances worked by the independent forward model), so no geophone records them
+  // from both directions and the velocity comes from the plane-layer formulas (Telford et al.
+  // 1990, §4.3). Sweep line 9 records every layer from both sides at many geophones.
+  it('interpret(rock recorded from both directions at no geophone) gives few-reversed-geophones for layer 3 only, naming the count', () => {
+    const section = { surface: () => 100, interfaces: [() => 97.5, () => 86], velocities: [600, 1500, 2600] };
+    const { result } = interpretCsv(syntheticCsv(section, [0, 18, 36, 54, 71], Array.from({ length: 72 }, (_, i) => i), 0.4, 1));
+    const warnings = result.warnings.filter((w) => w.code === 'few-reversed-geophones');
+    expect(warnings.map((w) => w.layer)).toEqual([3]);
+    expect(warnings[0].message).toContain('from both directions at no geophone');
+  });
+
+  it('interpret(line 9 of the sweep) gives no few-reversed-geophones warning', () => {
+    const { result } = interpretCsv(realisticCsv(realisticLine(9), 9));
+    expect(result.warnings.some((w) => w.code === 'few-reversed-geophones')).toBe(false);
   });
 });

@@ -1,6 +1,7 @@
 import { checkLayerCautions } from '../core/cautions.js';
 import type { BranchFit, Layer, RefractorPoint, Wave } from '../core/types.js';
 import { WarningLog } from '../core/warnings.js';
+import { si, vel } from '../core/siText.js';
 import { hiddenLayerOf, type RefractorMethods } from '../depth/profiles.js';
 import { MIN_REVERSED_RECEIVERS } from './jointModel.js';
 import { groundAlongLine, type NodeSection } from './nodeSection.js';
@@ -94,6 +95,15 @@ export function refineByInversion(input: RefineInput, options: false | LayeredIn
   const velocityPriors = options?.velocityPriors ?? layers.slice(0, refractors.length + 1).map((l, m) => (
     m > 0 && reversedReceivers(fits, m + 1) < MIN_REVERSED_RECEIVERS && l.velocitySe > 0 && Number.isFinite(l.velocitySe) ? { velocity: l.velocity, se: l.velocitySe } : undefined));
   const priorLayers = velocityPriors.flatMap((q, m) => (q !== undefined ? [m + 1] : []));
+  if (options?.velocityPriors === undefined) {
+    for (const m of priorLayers) {
+      const layer = layers[m - 1];
+      const count = reversedReceivers(fits, m);
+      log.add('few-reversed-geophones',
+        si`layer ${m}: its head wave is recorded from both directions ${count === 0 ? 'at no geophone' : `at ${count} geophone${count === 1 ? '' : 's'} only`}, so its velocity (${vel(layer.velocity)} ± ${vel(layer.velocitySe)} before the inversion) comes from the plane-layer formulas over its up-dip and down-dip apparent velocities, which assume a plane refractor, and the layered inversion was held near it. Where the refractor is irregular, that velocity and the depths computed with it can be off by more than the standard error shown: lengthen the spread or shoot farther off both ends so that more geophones record it from both sides`,
+        { layer: m });
+    }
+  }
   const base = { kept: false, iterations: 0, smoothing, nodeSpacing, lateralGradient, startVelocities, priorLayers };
   const picks = fittedPicks(fits);
   const empty = refractors.find((r) => r.points.length === 0);
