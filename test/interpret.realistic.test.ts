@@ -149,3 +149,27 @@ describe('interpret warns where a layer velocity rests on head waves recorded fr
     expect(result.warnings.some((w) => w.code === 'few-reversed-geophones')).toBe(false);
   });
 });
+
+describe('interpret on a line whose far off-end shot sees times fall with offset', () => {
+  // Line 109 of the sweep (the independent forward model): 96 geophones at 3 m on 3-10 % sloping
+  // ground, 285 m/s over 3864 m/s rock dipping at up to 8°, steeper than the critical angle
+  // asin(285/3864) = 4.2° (by hand), so the first breaks of the shot 257 m beyond the end arrive
+  // earlier as the offset grows (Telford et al. 1990, §4.3: the up-dip apparent slowness
+  // sin(θc − δ)/V1 is negative for δ > θc). It had stopped interpret with an internal error.
+  const { result } = interpretCsv(realisticCsv(realisticLine(109), 109));
+
+  it('interpret(line 109) leaves that branch out with branch-not-fitted, naming it, and keeps every other pick', () => {
+    const warnings = result.warnings.filter((w) => w.code === 'branch-not-fitted');
+    expect(warnings).toHaveLength(1);
+    expect(warnings[0].message).toContain('S7:reverse branch (96 picks');
+    expect(result.fits.some((f) => f.branch.sourceId === 'S7' && f.branch.side === 'reverse')).toBe(false);
+    // Every other branch is fitted: the five sources on the spread give 8 branches, the shot off the near end 1.
+    expect(result.fits).toHaveLength(9);
+  });
+
+  it('interpret(line 109) gives two layers within 3 % of 285 and 3864 m/s', () => {
+    expect(result.layers).toHaveLength(2);
+    expect(Math.abs(result.layers[0].velocity / 284.78 - 1)).toBeLessThan(0.03);
+    expect(Math.abs(result.layers[1].velocity / 3864.4 - 1)).toBeLessThan(0.03);
+  });
+});

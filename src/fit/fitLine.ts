@@ -2,11 +2,13 @@ import { checkLayerCautions } from '../core/cautions.js';
 import type { Branch, BranchFit, Wave } from '../core/types.js';
 import { WarningLog, type Warning } from '../core/warnings.js';
 import { startsAtSource } from './branches.js';
-import { branchName, fitBranches, type BranchChoices } from './fitBranches.js';
+import { branchName, fitBranches, segmentLimit, type BranchChoices } from './fitBranches.js';
 import { assignLayers, layerVelocities } from './layers.js';
-import { MIN_VELOCITY_CONTRAST } from './segmentedRegression.js';
+import { MIN_VELOCITY_CONTRAST, segmentedRegression } from './segmentedRegression.js';
 import { staticsCorrectedFits } from './statics.js';
-import { maxOf, pushAll } from '../core/extent.js';
+import { maxOf, minOf, pushAll } from '../core/extent.js';
+import { InputError } from '../core/errors.js';
+import { len, si } from '../core/siText.js';
 
 /** Warnings that show a fit took bends of the branches for layers (see staticsCorrectedFits). */
 const IRREGULAR = new Set(['apparent-velocity-decrease', 'layer-consistency', 'unreversed-layer', 'velocity-inversion', 'layer-merged']);
@@ -20,7 +22,9 @@ const IRREGULAR = new Set(['apparent-velocity-decrease', 'layer-consistency', 'u
  *
  * @returns the fits, the warnings they raise, and whether statics were applied
  */
-export function fitLine(branches: Branch[], options: BranchChoices, file: string, spacing: number, wave: Wave): { fits: BranchFit[]; warnings: Warning[]; statics: boolean } {
+export function fitLine(given: Branch[], options: BranchChoices, file: string, spacing: number, wave: Wave): { fits: BranchFit[]; warnings: Warning[]; statics: boolean } {
+  const leftOut = new WarningLog();
+  const branches = fittableBranches(given, options, file, leftOut);
   const attempt = (useStatics: boolean) => {
     const attemptLog = new WarningLog();
     const fitWith = (choices: BranchChoices, into: WarningLog = attemptLog) => (useStatics
@@ -109,7 +113,7 @@ export function fitLine(branches: Branch[], options: BranchChoices, file: string
   if (statics) {
     chosen.items.push({ code: 'statics-applied', message: `the branches bend in ways that straight segments took for extra layers (${plain.flags} inconsistencies); they were segmented again after removing each receiver's delay time (refraction statics), which left ${chosen.flags}. The refractor is probably irregular: prefer the GRM and delay-time depths to the intercept-time ones` });
   }
-  return { fits: chosen.fits, warnings: chosen.items, statics };
+  return { fits: chosen.fits, warnings: [...leftOut.items, ...chosen.items], statics };
 }
 
 /**
@@ -117,6 +121,32 @@ export function fitLine(branches: Branch[], options: BranchChoices, file: string
  * although others on the same side reach farther: a deeper layer shows on every branch long enough
  * to see it, so a lone one is taken for noise. Branches whose segments the user fixed are left alone.
  */
+/**
+ * The branches segmented regression can describe. A branch whose first breaks do not come later
+ * as the offset grows has no segments of positive slowness (first arrivals: a head wave's time
+ * grows with offset unless its refractor dips towards the source more steeply than the critical
+ * angle, Telford et al. 1990, §4.3): it is left out of the fits with a `branch-not-fitted`
+ * warning naming it, rather than stopping the line. A branch whose segments the user fixed is
+ * fitted as asked (and refused with a message if it cannot be).
+ *
+ * @throws InputError when no branch of the line can be fitted
+ */
+function fittableBranches(branches: Branch[], options: BranchChoices, file: string, log: WarningLog): Branch[] {
+  const kept = branches.filter((branch) => {
+    const name = branchName(branch);
+    const fixed = options.segments?.[name] !== undefined || options.breakpoints?.[name] !== undefined || options.segments?.['*'] !== undefined;
+    if (fixed) return true;
+    if (segmentedRegression(branch.offsets, branch.times, { firstThroughOrigin: options.directThroughOrigin, maxSegments: segmentLimit(options, name) }) !== undefined) return true;
+    const n = branch.offsets.length;
+    log.add('branch-not-fitted',
+      si`${name} branch (${n} picks, offsets ${len(minOf(branch.offsets), 1)} to ${len(maxOf(branch.offsets), 1)}): its first breaks do not arrive later as the offset grows (${(branch.times[0] * 1e3).toFixed(2)} ms at the nearest geophone, ${(branch.times[n - 1] * 1e3).toFixed(2)} ms at the farthest), so no straight-line segments of positive slowness describe it and it is left out of the interpretation. Times that fall with offset come from a refractor dipping towards this source more steeply than its critical angle, or from a wrong shot time or source position: check the trigger and the position of this record`,
+      { where: { file, source: branch.sourceId } });
+    return false;
+  });
+  if (kept.length === 0) throw new InputError({ file }, 'no branch of the line can be fitted: on every branch the first breaks fail to arrive later as the offset grows; check the shot times and positions');
+  return kept;
+}
+
 function loneDeepestBranches(fits: BranchFit[], spacing: number): { fit: BranchFit; seenBeyond: string }[] {
   const near = fits.filter((f) => startsAtSource(f.branch, spacing));
   if (near.length < 2) return [];

@@ -55,7 +55,11 @@ export function staticsCorrectedFits(branches: Branch[], choices: BranchChoices,
   if (delays === undefined) return undefined;
   const mean = delays.stations.reduce((a, s) => a + s.delay, 0) / delays.stations.length;
   const correction = new Map(delays.stations.map((s) => [s.x, s.delay - mean]));
-  return branches.map((branch) => {
+  // A branch the straightened times leave without a fit (no segments of positive slowness) ends
+  // the statics attempt: the plain fits stand.
+  let unfitted = false;
+  const fits = branches.map((branch) => {
+    if (unfitted) return undefined;
     const name = branchName(branch);
     const options = {
       segments: choices.segments?.[name] ?? choices.segments?.['*'],
@@ -66,10 +70,13 @@ export function staticsCorrectedFits(branches: Branch[], choices: BranchChoices,
     try {
       const flags = refracted.get(branch);
       if (userFixed(branch) || flags === undefined || !flags.some(Boolean)) {
-        return branchFit(branch, segmentedRegression(branch.offsets, branch.times, options)!, file, warnings);
+        const plain = segmentedRegression(branch.offsets, branch.times, options);
+        if (plain === undefined) { unfitted = true; return undefined; }
+        return branchFit(branch, plain, file, warnings);
       }
       const straightened = branch.times.map((t, i) => (flags[i] ? t - (correction.get(branch.picks[i].receiverX) ?? 0) : t));
-      const shape = segmentedRegression(branch.offsets, straightened, options)!;
+      const shape = segmentedRegression(branch.offsets, straightened, options);
+      if (shape === undefined) { unfitted = true; return undefined; }
       // The straightened lines describe the refractor's mean depth plus this source's own delay; adding
       // back the receiver correction at the source makes a refracted segment's intercept the local one
       // again (twice the delay time under the source), as the intercept-time method needs.
@@ -86,5 +93,6 @@ export function staticsCorrectedFits(branches: Branch[], choices: BranchChoices,
       throw error;
     }
   });
+  return unfitted ? undefined : (fits as BranchFit[]);
 }
 

@@ -28,6 +28,7 @@ for (let seed = first; seed < first + lines; seed++) {
     result = interpret(table, {}, log);
   } catch (error) {
     rows.push({ name: line.name, right: false, countRight: false, invented: false, velocitiesRight: false, depthsRight: false, stepped: line.kind.shape === 'stepped' || line.kind.shape === 'channel', misfit: false, detail: `threw ${(error as Error).message}`, ms: 0 });
+    if (verbose) process.stdout.write(`${seed}\tTHREW\t${line.name}\t${(error as Error).message}\n`);
     continue;
   }
   const ms = performance.now() - start;
@@ -71,5 +72,6 @@ process.stdout.write([
   `water table flagged ${water.filter((r) => r.water).length} of ${water.length}`,
   `stepped or channelled rock fully right ${stepped.filter((r) => r.right).length} of ${stepped.length}`,
   `forward-misfit on fully right lines ${count((r) => r.right && r.misfit)}, on wrong lines ${count((r) => !r.right && r.misfit)} of ${count((r) => !r.right)}`,
+  `threw ${count((r) => r.detail.startsWith('threw'))}`,
   `median interpret time ${[...rows.map((r) => r.ms)].sort((a, b) => a - b)[rows.length >> 1].toFixed(0)} ms`,
 ].join('\n') + '\n');
