@@ -12,6 +12,7 @@ import type { BranchChoices } from './fit/fitBranches.js';
 import { fitLine } from './fit/fitLine.js';
 import { velocityAnalysisCheck, type VelocityAnalysisCheck } from './depth/grm.js';
 import { checkedPicks, forwardCheck, isForwardMisfit, type ForwardCheck } from './forward/forwardCheck.js';
+import { PATTERN_Z, residualPattern } from './forward/residualPattern.js';
 import type { LayeredInversionOptions } from './model/layeredInversion.js';
 import { KEEP_MARGIN, KEEP_MARGIN_SECONDS, refineByInversion, type InversionSummary } from './model/refineByInversion.js';
 import { assignLayers, layerVelocities } from './fit/layers.js';
@@ -169,6 +170,11 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   const forward = forwardCheck({ fits, layers: usable, refractors, receivers, spacing, timeShift, section: inversion?.kept ? inversion.section : undefined });
   if (forward !== undefined && isForwardMisfit(forward.rms, noise.sigma)) {
     log.add('forward-misfit', si`first arrivals computed through the interpreted section differ from the picks by ${(forward.rms * 1e3).toFixed(2)} ms RMS, against a pick noise of ${(noise.sigma * 1e3).toFixed(2)} ms (from the ${noise.source} of the picks), worst ${(forward.worst.difference * 1e3).toFixed(1)} ms for source ${forward.worst.sourceId} at x = ${len(forward.worst.receiverX, 2)}: the section does not explain the picks well; look for a missed layer, a wrong segment choice or a lateral change`);
+  }
+  // A pattern in the residuals that their RMS does not show (runs of one sign along the geophones).
+  const pattern = forward === undefined ? undefined : residualPattern(forward.residuals);
+  if (forward !== undefined && pattern !== undefined && pattern.z > PATTERN_Z && !log.items.some((w) => w.code === 'forward-misfit')) {
+    log.add('residual-pattern', si`the differences between the picks and the arrivals computed through the section run in stretches of one sign along the geophones (lag-1 autocorrelation ${pattern.r1.toFixed(2)} over ${pattern.n} picks, ${pattern.z.toFixed(1)} standard deviations from what independent pick errors give; Box & Pierce 1970), although their RMS (${(forward.rms * 1e3).toFixed(2)} ms) is near the pick noise (${(noise.sigma * 1e3).toFixed(2)} ms): the section leaves something in the picks unexplained, such as a thin layer missed near a crossover, relief on a refractor sharper than the section follows, or a change of velocity along the line. Compare the computed arrivals with the picks on the time-distance plot before relying on the depths and velocities`);
   }
   checkHiddenLayers(refractors, log);
   history.push({ step: 'depths', parameters: { methods: ['intercept-time', 'plus-minus', 'GRM', 'delay-time'], recommended: refractors.map((r) => r.method), reciprocal_tolerance_ms: Number((reciprocalTolerance(pickNoise) * 1e3).toFixed(3)), disagreement: `max(${DISAGREE_METRES} m, ${DISAGREE_FRACTION * 100} %)` } });

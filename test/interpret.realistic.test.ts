@@ -173,3 +173,21 @@ describe('interpret on a line whose far off-end shot sees times fall with offset
     expect(Math.abs(result.layers[1].velocity / 3864.4 - 1)).toBeLessThan(0.03);
   });
 });
+
+describe('interpret warns of a pattern in the forward-check residuals that their RMS does not show', () => {
+  // Sweep line 67 (the independent forward model): a water table 4.2 m down (1500 m/s) under
+  // 361 m/s soil over rock at 9.1 m, 72 geophones at 1 m; the saturated layer arrives first over
+  // too few geophones for the fits, so the section misses it, yet the forward RMS is within the
+  // forward-misfit threshold. Line 9 (a water table found) leaves residuals without a pattern.
+  it('interpret(line 67, a missed water table) gives residual-pattern and no forward-misfit', () => {
+    const { result } = interpretCsv(realisticCsv(realisticLine(67), 67));
+    expect(result.layers).toHaveLength(2);
+    expect(result.warnings.some((w) => w.code === 'forward-misfit')).toBe(false);
+    expect(result.warnings.find((w) => w.code === 'residual-pattern')?.message).toMatch(/lag-1 autocorrelation 0\.\d\d over \d+ picks/);
+  });
+
+  it('interpret(line 9) gives no residual-pattern warning', () => {
+    const { result } = interpretCsv(realisticCsv(realisticLine(9), 9));
+    expect(result.warnings.some((w) => w.code === 'residual-pattern')).toBe(false);
+  });
+});
