@@ -1,5 +1,6 @@
 // Mutation testing (StrykerJS, https://stryker-mutator.io) over the modules whose numbers reach a
-// permit packet: depths, site classes, layer velocities and dips, units, the forward model.
+// permit packet: depths, site classes, layer velocities and dips, units, the forward model, the
+// joint time-term model and the layered inversion.
 // `npm run mutation` runs every module in turn; `MUTATION_MODULE=site npm run mutation` one of them.
 // Each module writes its own report folder under reports/mutation/ (git-ignored), with an
 // incremental file so a rerun tests only the mutants whose code or tests changed.
@@ -10,6 +11,7 @@ export const modules = {
   layers: ['src/fit/layers.ts', 'src/fit/dippingLayers.ts'],
   units: ['src/core/units.ts'],
   forward: ['src/forward/**/*.ts'],
+  model: ['src/model/**/*.ts'],
 };
 
 const selected = process.env.MUTATION_MODULE;

@@ -10,6 +10,7 @@ const tests: Record<string, string[]> = {
   site: ['test/site/**/*.test.ts'],
   depth: ['test/depth/**/*.test.ts', 'test/fit/dippingLayers.test.ts', 'test/interpret.forward.test.ts'],
   forward: ['test/forward/**/*.test.ts'],
+  model: ['test/model/*.test.ts', 'test/interpret.forward.test.ts'],
 };
 const module = process.env.MUTATION_MODULE;
 // MUTATION_TESTS replaces the module's test set (comma-separated globs), e.g. its fast unit tests
