@@ -5,6 +5,8 @@
 // Each module writes its own report folder under reports/mutation/ (git-ignored), with an
 // incremental file so a rerun tests only the mutants whose code or tests changed.
 // See DEVELOPERS.md, "Mutation testing".
+import { createHash } from 'node:crypto';
+
 export const modules = {
   depth: ['src/depth/**/*.ts'],
   site: ['src/site/**/*.ts'],
@@ -30,9 +32,11 @@ const narrowed = files !== undefined && files.length > 0;
 // MUTATION_TESTS (read by vitest.mutation.config.ts) runs other tests against the mutants; such a
 // run keeps its own folder too, its name ending in the tests' names.
 const tests = process.env.MUTATION_TESTS?.trim() ? `@${process.env.MUTATION_TESTS.replace(/[^A-Za-z0-9.+-]+/g, '_')}` : '';
+// A folder name longer than the file system allows (255 bytes) is cut and given a hash of the whole.
+const short = (name) => (name.length <= 120 ? name : `${name.slice(0, 100)}~${createHash('sha1').update(name).digest('hex').slice(0, 12)}`);
 const folder = narrowed
-  ? `reports/mutation/${selected}/${files.join('+').replace(/[^A-Za-z0-9.+-]+/g, '_')}${tests}`
-  : `reports/mutation/${selected ?? 'all'}${tests}`;
+  ? `reports/mutation/${selected}/${short(`${files.join('+').replace(/[^A-Za-z0-9.+-]+/g, '_')}${tests}`)}`
+  : `reports/mutation/${short(`${selected ?? 'all'}${tests}`)}`;
 
 export default {
   testRunner: 'vitest',
