@@ -114,6 +114,15 @@ describe('reassignBranch', () => {
     for (let i = 1; i < labels.length; i++) expect(labels[i]).toBeGreaterThanOrEqual(labels[i - 1]);
   });
 
+  it('keeps a branch that ends before the crossover, or within σ of it, on the direct wave (the shallower arrival on a tie)', () => {
+    // Picks from 2 m to 14 m, all direct at first, σ = 1.2 ms: at 14 m the direct wave is 1 ms
+    // (under σ) later than the head wave, so both cost nothing there and the labels stay direct.
+    const short = order.slice(0, 7);
+    expect(reassignBranch(m, filled, picks, short, new Int8Array(picks.length), 1.2e-3, () => false)).toEqual(short.map(() => 0));
+    const shorter = order.slice(0, 5); // to 10 m, all before the crossover
+    expect(reassignBranch(m, filled, picks, shorter, new Int8Array(picks.length), 0.5e-3, () => false)).toEqual(shorter.map(() => 0));
+  });
+
   it('returns the labels as they were when no non-decreasing labelling is finite (two fixed picks out of order)', () => {
     const current = Int8Array.from(picks, (_, i) => (i === 2 ? 1 : 0));
     const labels = reassignBranch(m, filled, picks, order, current, 1e-3, (i) => i === 2 || i === 5);

@@ -102,6 +102,14 @@ describe('pickNoise: second differences', () => {
     expect(noise.secondDifferences!.sigma).toBeCloseTo(0, 12);
   });
 
+  it('skips a triple with a zero gap (two picks at one offset), whose ratio h₂/h₁ has no value', () => {
+    // 12 picks with the offset 10 m twice: 10 triples, of which the 2 with the zero gap are left out.
+    const offsets = [2, 4, 6, 8, 10, 10, 12, 14, 16, 18, 20, 22];
+    const noise = pickNoise([fit(offsets, offsets.map((x) => 0.004 + x / 1500), [[0, offsets.length]])], spacing, [], 9e-3);
+    expect(noise.secondDifferences!.count).toBe(8);
+    expect(noise.secondDifferences!.sigma).toBeCloseTo(0, 12);
+  });
+
   it(`takes the second differences from ${MIN_TRIPLES} triples on, the reciprocal times below that`, () => {
     const sigma = 0.4e-3;
     const offsets = range(MIN_TRIPLES + 2, spacing, spacing);

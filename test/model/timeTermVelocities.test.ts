@@ -28,6 +28,12 @@ describe('timeTermVelocities', () => {
     expect(result.map((r) => Math.round(r.velocity * 100) / 100)).toEqual([400, 939.69, 2500, 4000]);
   });
 
+  it('takes cos 0 = 1 for a refractor whose layer is not among the layers given', () => {
+    const result = timeTermVelocities(joint([1 / 400, 1 / 1000], [0, 1e-5]), [layer(1)]);
+    expect(result[1].velocity).toBeCloseTo(1000, 9);
+    expect(result[1].velocitySe).toBeCloseTo(10, 9); // 1e-5 · 1000²
+  });
+
   it('lists the refractors that get depths only, not a possible one held beyond them', () => {
     const j = joint([1 / 400, 1 / 1000, 1 / 2500], [0, 0, 0]);
     (j as { refractors: number }).refractors = 1;
