@@ -103,7 +103,7 @@ describe('solveTimeTerms on the textbook flat refractor under rolling ground', (
 // solved here densely by the normal equations with Gauss-Jordan elimination (a reference sharing
 // no code with src/). Its solution, σ = √(rss / (n − p)) and σ √((AᵀA)⁻¹ⱼⱼ) are those of any least
 // squares solver; the tolerances are round-off of a system of some 30 unknowns.
-function referenceTimeTerms(geometry: { sourceXs: number[]; receiverXs: number[]; spacing: number }, picks: ModelPick[], arrival: Int8Array, held?: { slowness: number; se: number }) {
+function referenceTimeTerms(geometry: { sourceXs: number[]; receiverXs: number[]; spacing: number }, picks: ModelPick[], arrival: Int8Array, held?: { slowness: number; se: number }, smoothing = SMOOTHING_WEIGHT) {
   const columns = new Map<string, number>([['u0', 0], ['u1', 1]]);
   const column = (key: string) => { if (!columns.has(key)) columns.set(key, columns.size); return columns.get(key)!; };
   const rows: { entries: [number, number][]; target: number }[] = [];
@@ -124,7 +124,7 @@ function referenceTimeTerms(geometry: { sourceXs: number[]; receiverXs: number[]
     const h2 = xs[c] - xs[b];
     if (h1 > 3 * geometry.spacing || h2 > 3 * geometry.spacing) continue;
     const m = (h1 + h2) / 2;
-    rows.push({ entries: [[column(`r${a}`), (SMOOTHING_WEIGHT * m) / h1], [column(`r${b}`), -SMOOTHING_WEIGHT * (m / h1 + m / h2)], [column(`r${c}`), (SMOOTHING_WEIGHT * m) / h2]], target: 0 });
+    rows.push({ entries: [[column(`r${a}`), (smoothing * m) / h1], [column(`r${b}`), -smoothing * (m / h1 + m / h2)], [column(`r${c}`), (smoothing * m) / h2]], target: 0 });
   }
   let constraints = 0;
   geometry.sourceXs.forEach((x, s) => {
@@ -189,8 +189,9 @@ function referenceTimeTerms(geometry: { sourceXs: number[]; receiverXs: number[]
 
 describe('solveTimeTerms against the time-term system solved densely', () => {
   // Receivers every 2 m from 0 to 40 m. Head-wave picks reach the receivers 0-12 m and 22-40 m
-  // but not 6 m: the 4 m gap 4 -> 8 m tests the divided-difference scaling, the 10 m gap
-  // 12 -> 22 m (over three spacings) the skipped rows. Sources at −12 m (off end, untied), 5 m
+  // but not 6, 28 or 30 m: the 4 m gap 4 -> 8 m tests the divided-difference scaling, the 10 m gap
+  // 12 -> 22 m (over three spacings) the skipped rows, the 6 m gap 26 -> 32 m (three spacings
+  // exactly) rows kept. Sources at −12 m (off end, untied), 5 m
   // (inside, tied halfway between the 4 m and 8 m receivers) and 47 m (7 m past the last, untied).
   // Direct-wave picks near each source over a slope distance 1 % longer than the offset; some
   // picks left out (−1). Time terms 8-14 ms, V₁ = 500, V₂ = 2200 m/s, 0.3 ms of noise.
@@ -207,7 +208,7 @@ describe('solveTimeTerms against the time-term system solved densely', () => {
       receiverXs.forEach((rx, r) => {
         const offset = Math.abs(rx - sx);
         if (offset === 0) return;
-        const reached = rx !== 6 && !(rx > 12 && rx < 22);
+        const reached = rx !== 6 && rx !== 28 && rx !== 30 && !(rx > 12 && rx < 22);
         const direct = offset < 9;
         if (!reached && !direct) return;
         const time = direct ? (offset * 1.01) / 500 : tt(sx) + tt(rx) + offset / 2200;
@@ -244,6 +245,11 @@ describe('solveTimeTerms against the time-term system solved densely', () => {
   it('matches the dense solution with one source tied inside the spread (time terms to 1e-9 s, σ and standard errors to 1e-6)', () => {
     const { picks, arrival } = line(11, [0, 1, 2]);
     compare(solveTimeTerms(geometry, picks, arrival, 1)!, referenceTimeTerms(geometry, picks, arrival), picks);
+  });
+
+  it('matches the dense solution with another smoothing weight (30, the first stage of the joint model)', () => {
+    const { picks, arrival } = line(15, [0, 1, 2]);
+    compare(solveTimeTerms(geometry, picks, arrival, 1, { smoothing: 30 })!, referenceTimeTerms(geometry, picks, arrival, undefined, 30), picks);
   });
 
   it('matches the dense solution with only off-end sources (equal mean source and receiver time terms)', () => {
