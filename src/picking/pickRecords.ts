@@ -2,6 +2,7 @@ import type { Seg2Record } from '../io/seg2/types.js';
 import type { PickTrace } from './autoPick.js';
 import { pickPolarityPair, type PairCheck } from './polarityPairs.js';
 import { pickShearRecord } from './pickShearRecord.js';
+import { shearGuides, type ShotPicks } from './parallelShots.js';
 import { pickSeg2, placedRows, placeRecord, type PickRow, type PlacedRecord, type RecordPickOptions } from './recordPicks.js';
 import { pushAll } from '../core/extent.js';
 
@@ -74,9 +75,25 @@ export function pickRecords(records: Seg2Record[], options: RecordsPickOptions =
   const rows: PickRow[] = [];
   const out: RecordGroup[] = [];
   const notes: RecordsPicks['notes'] = [];
+  // Lone records first, then checked against each other (`shearGuides`: a shot off an end
+  // whose first breaks run parallel to the S of the end shot has them as its S) and picked again.
+  const lone = groups.filter((g) => g.length === 1).map((g) => g[0]);
+  const lonePicks = new Map(lone.map((p) => [p, pickShearRecord(p.traces, options)]));
+  const shots: ShotPicks[] = lone.map((p) => {
+    const { picks, pTimes, firstBreaks } = lonePicks.get(p)!;
+    // The P moveout fitted to the first breaks where there is one (it passes over their scatter).
+    const arrivals = pTimes.map((time, i) => (time === undefined ? firstBreaks[i] : { time, confidence: 1, status: 'picked' as const }));
+    return { sourceX: p.geometry[0].sourceX, receiverX: p.geometry.map((g) => g.receiverX), picks, firstBreaks: arrivals };
+  });
+  shearGuides(shots).forEach((guide, k) => {
+    if (guide.every((time) => time === undefined)) return;
+    const again = pickShearRecord(lone[k].traces, options, undefined, guide);
+    // Kept only where the new S picks run parallel to the nearer shot's S, as the first breaks do.
+    if (shearGuides(shots.map((shot, j) => (j === k ? { ...shot, picks: again.picks } : shot)))[k].every((time) => time === undefined)) lonePicks.set(lone[k], again);
+  });
   for (const group of groups) {
     if (group.length === 1) {
-      pushAll(rows, placedRows(group[0], pickShearRecord(group[0].traces, options).picks, 'S'));
+      pushAll(rows, placedRows(group[0], lonePicks.get(group[0])!.picks, 'S'));
       continue;
     }
     const same = group.filter((r, k) => k === 0 || correlation(group[0], r) >= 0);

@@ -1,4 +1,4 @@
-import { checkRecord, localSpikes, pickNear, pickRecord, pickTrace, travelTimeFit, type PickOptions, type PickTrace, type TracePick } from './autoPick.js';
+import { checkRecord, localSpikes, pickNear, pickRecord, pickTrace, travelTimeFit, windows, type PickOptions, type PickTrace, type TracePick } from './autoPick.js';
 import { SHEAR_AFTER_P, shearAfter, shearOnset } from './shearOnset.js';
 import { minOf } from '../core/extent.js';
 
@@ -67,6 +67,8 @@ export interface ShearPickResult {
   picks: TracePick[];
   /** The P time expected at each trace, in seconds after the shot (undefined: none). */
   pTimes: (number | undefined)[];
+  /** The first breaks of the record (or the P picks given), one per trace. */
+  firstBreaks: TracePick[];
 }
 
 /**
@@ -81,16 +83,23 @@ export interface ShearPickResult {
  * that status if it is still there.
  *
  * @param pFirstBreaks - P picks per trace to use instead of picking the record's first breaks
+ * @param sGuide - per trace, the S time expected where the first break is the S and no P is seen
+ *   (`shearGuides`, from the shots of the line); such a trace has no P time, and its S is picked
+ *   near that time (`nearGuide`)
  */
-export function pickShearRecord(traces: PickTrace[], options: PickOptions = {}, pFirstBreaks?: TracePick[]): ShearPickResult {
+export function pickShearRecord(traces: PickTrace[], options: PickOptions = {}, pFirstBreaks?: TracePick[], sGuide: (number | undefined)[] = []): ShearPickResult {
   const raw = pFirstBreaks ?? pickRecord(traces, options);
   // First breaks of this record count as P only where a stronger arrival follows them.
-  const confirmed = pFirstBreaks ?? confirmedP(traces, raw, options);
+  const confirmed = (pFirstBreaks ?? confirmedP(traces, raw, options)).map((p, i) => (sGuide[i] === undefined ? p : { ...p, time: undefined, status: 'no clear onset' as const }));
   const { curve, search } = pMoveout(traces, confirmed, raw);
+  traces.forEach((_, i) => {
+    if (sGuide[i] !== undefined) curve[i] = search[i] = undefined;
+  });
   const onP = (pick: TracePick, i: number) => pick.time !== undefined && curve[i] !== undefined && Math.abs(pick.time - curve[i]!) <= Math.max(3 * traces[i].sampleInterval, 1e-3);
   const initial = traces.map((t, i) => {
     // At zero offset the P and the S leave together: the first energy is the onset.
     if (t.offset === 0) return pickTrace(t, options);
+    if (sGuide[i] !== undefined) return nearGuide(t, sGuide[i]!, raw[i], options);
     const pick = shearOnset(t, search[i], options);
     return onP(pick, i) ? { confidence: 0, status: 'no clear onset' as const, snr: pick.snr } : pick;
   });
@@ -102,7 +111,20 @@ export function pickShearRecord(traces: PickTrace[], options: PickOptions = {}, 
   picks.forEach((pick, i) => {
     if (onP(pick, i)) picks[i] = { confidence: 0, status: 'on the P arrival', snr: pick.snr };
   });
-  return { picks, pTimes: curve };
+  return { picks, pTimes: curve, firstBreaks: raw };
+}
+
+/**
+ * The S pick of a trace whose first break is the S, near the time expected for it: the
+ * trace's own first break where it lies within max(2 ms, 4 samples, SHEAR_LATE of the time) of
+ * that time, else an AIC re-pick around it within the same tolerance, else none.
+ */
+function nearGuide(t: PickTrace, guide: number, firstBreak: TracePick, options: PickOptions): TracePick {
+  const tolerance = Math.max(2e-3, 4 * t.sampleInterval, SHEAR_LATE * guide);
+  const own = firstBreak.status === 'picked' || firstBreak.status === 'repicked' ? firstBreak.time : undefined;
+  if (own !== undefined && Math.abs(own - guide) <= tolerance) return firstBreak;
+  const again = pickNear(t, guide, Math.max(3 * tolerance, 4e-3), options);
+  return again !== undefined && Math.abs(again.time! - guide) <= tolerance ? { ...again, status: 'repicked', confidence: again.confidence / 2 } : { confidence: 0, status: 'no clear onset' };
 }
 
 /**
@@ -128,14 +150,38 @@ export function confirmedP(traces: PickTrace[], firstBreaks: TracePick[], option
     // arrival sooner than SHEAR_TO_P_LEAST times the first break is not the S after a P.
     return s !== undefined && s >= SHEAR_TO_P_LEAST * time ? s : undefined;
   });
+  // Near the source the ratio of a trace whose first break is not confirmed is that of the onset
+  // found after it, stronger or not (a P with its S blurred by noise still has the S well after
+  // it), and 1 where no onset at all follows it: a first break with nothing after it but a
+  // surface wave too close to trigger on is the S itself. Such a trace counts only where an S at
+  // SHEAR_TO_P_NEAR times its time would lag it by two STA windows or more (nearer, the trigger
+  // cannot tell the two apart).
+  const nearRatio = (i: number): number | undefined => {
+    const time = firstBreaks[i].time;
+    if (after[i] !== undefined) return after[i]! / time!;
+    const t = traces[i];
+    if (t.offset === 0 || time === undefined || time <= 0 || (SHEAR_TO_P_NEAR - 1) * time < 2 * windows(t, options).short * t.sampleInterval) return undefined;
+    const onset = shearOnset(t, time, options).time;
+    return onset === undefined ? 1 : onset / time;
+  };
   const ratios: number[] = [];
+  // Confirmed first breaks among those nearest the source whose S comes SHEAR_TO_P_NEAR times as
+  // late or more: a surface wave behind a direct S does not lag that much, so they stay P.
+  const nearP = new Set<number>();
   for (const side of [-1, 1]) {
-    traces.map((t, i) => ({ x: Math.abs(t.offset), i })).filter(({ i }) => Math.sign(traces[i].offset) === side && after[i] !== undefined)
-      .sort((a, b) => a.x - b.x).slice(0, 6).forEach(({ i }) => ratios.push(after[i]! / firstBreaks[i].time!));
+    let count = 0;
+    for (const { i } of traces.map((t, k) => ({ x: Math.abs(t.offset), i: k })).filter(({ i }) => Math.sign(traces[i].offset) === side).sort((a, b) => a.x - b.x)) {
+      if (count >= 6) break;
+      const ratio = nearRatio(i);
+      if (ratio === undefined) continue;
+      count++;
+      ratios.push(ratio);
+      if (after[i] !== undefined && ratio >= SHEAR_TO_P_NEAR) nearP.add(i);
+    }
   }
   ratios.sort((a, b) => a - b);
   const none = ratios.length > 0 && ratios[ratios.length >> 1] < SHEAR_TO_P_NEAR;
-  return firstBreaks.map((p, i) => (none || after[i] === undefined ? { ...p, time: undefined, status: 'no clear onset' as const } : p));
+  return firstBreaks.map((p, i) => ((none && !nearP.has(i)) || after[i] === undefined ? { ...p, time: undefined, status: 'no clear onset' as const } : p));
 }
 
 /**
