@@ -158,10 +158,10 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
       log.add('refractor-not-needed',
         si`the picks were also fitted with one refractor more (layer ${joint.refractors} of ${vel(upper)} over layer ${joint.refractors + 1} of ${vel(lower)}); through the layered inversion that section explains them no better, for the unknowns it adds, than the one reported (RMS ${(check.with.rms * 1e3).toFixed(2)} ms with it against ${(check.without.rms * 1e3).toFixed(2)} ms without, pick noise ${(noise.sigma * 1e3).toFixed(2)} ms, judged by an information criterion that charges each added unknown, Hannan & Quinn 1979), so the extra refractor is left out. Relief on a refractor, such as a channel or a step, can bend the travel times like a deeper layer: confirm the layering with a boring or a longer spread before relying on it`,
         { layer: joint.refractors + 1 });
-      rerun.history.splice(rerun.history.findIndex((h) => h.step === 'inversion') + 1, 0, { step: 'refractor_check', parameters: { refractor: joint.refractors, needed: false, rms_with_ms: Number((check.with.rms * 1e3).toFixed(3)), rms_without_ms: Number((check.without.rms * 1e3).toFixed(3)), criterion: COUNT_CHECK } });
+      rerun.history.splice(rerun.history.findIndex((h) => h.step === 'inversion') + 1, 0, checkStep(joint.refractors, check));
       return rerun;
     }
-    if (check !== undefined) history.push({ step: 'refractor_check', parameters: { refractor: joint.refractors, needed: true, rms_with_ms: Number((check.with.rms * 1e3).toFixed(3)), rms_without_ms: Number((check.without.rms * 1e3).toFixed(3)), criterion: COUNT_CHECK } });
+    if (check !== undefined) history.push(checkStep(joint.refractors, check));
   }
   // The final layer velocities against the GRM velocity analysis of each refractor.
   const velocityAnalysis = velocityAnalysisCheck(refractors, usable, log);
@@ -256,6 +256,11 @@ function deepestNeeded(
   const without = score(fewer);
   if (withIt === undefined || without === undefined || withIt.n !== without.n) return undefined;
   return { needed: without.value > withIt.value, with: withIt, without };
+}
+
+/** The history step of the deepest-refractor check. */
+function checkStep(refractor: number, check: NonNullable<ReturnType<typeof deepestNeeded>>): Interpretation['history'][number] {
+  return { step: 'refractor_check', parameters: { refractor, needed: check.needed, rms_with_ms: Number((check.with.rms * 1e3).toFixed(3)), rms_without_ms: Number((check.without.rms * 1e3).toFixed(3)), criterion: COUNT_CHECK } };
 }
 
 /** Confidence of each pick where the table has a `confidence` column (0-1), as `pick` writes it. */

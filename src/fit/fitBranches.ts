@@ -25,6 +25,12 @@ export function segmentLimit(choices: BranchChoices, name: string): number {
   return Math.min(choices.maxSegments ?? 4, choices.segmentCaps?.[name] ?? 4);
 }
 
+/** Whether the user fixed the segments of this branch (by its name or for every branch) or its breakpoints. */
+export function isUserFixed(choices: BranchChoices, branch: Branch): boolean {
+  const name = branchName(branch);
+  return choices.segments?.[name] !== undefined || choices.breakpoints?.[name] !== undefined || choices.segments?.['*'] !== undefined;
+}
+
 /** The name by which the user refers to a branch: source id, a colon, and the side. */
 export function branchName(branch: Branch): string {
   return `${branch.sourceId}:${branch.side}`;

@@ -2,7 +2,7 @@ import { checkLayerCautions } from '../core/cautions.js';
 import type { Branch, BranchFit, Wave } from '../core/types.js';
 import { WarningLog, type Warning } from '../core/warnings.js';
 import { startsAtSource } from './branches.js';
-import { branchName, fitBranches, segmentLimit, type BranchChoices } from './fitBranches.js';
+import { branchName, fitBranches, isUserFixed, segmentLimit, type BranchChoices } from './fitBranches.js';
 import { assignLayers, layerVelocities } from './layers.js';
 import { MIN_VELOCITY_CONTRAST, segmentedRegression } from './segmentedRegression.js';
 import { staticsCorrectedFits } from './statics.js';
@@ -117,11 +117,6 @@ export function fitLine(given: Branch[], options: BranchChoices, file: string, s
 }
 
 /**
- * Branches near their source whose deepest segment is a layer seen by no other such branch
- * although others on the same side reach farther: a deeper layer shows on every branch long enough
- * to see it, so a lone one is taken for noise. Branches whose segments the user fixed are left alone.
- */
-/**
  * The branches segmented regression can describe. A branch whose first breaks do not come later
  * as the offset grows has no segments of positive slowness (first arrivals: a head wave's time
  * grows with offset unless its refractor dips towards the source more steeply than the critical
@@ -134,8 +129,7 @@ export function fitLine(given: Branch[], options: BranchChoices, file: string, s
 function fittableBranches(branches: Branch[], options: BranchChoices, file: string, log: WarningLog): Branch[] {
   const kept = branches.filter((branch) => {
     const name = branchName(branch);
-    const fixed = options.segments?.[name] !== undefined || options.breakpoints?.[name] !== undefined || options.segments?.['*'] !== undefined;
-    if (fixed) return true;
+    if (isUserFixed(options, branch)) return true;
     if (segmentedRegression(branch.offsets, branch.times, { firstThroughOrigin: options.directThroughOrigin, maxSegments: segmentLimit(options, name) }) !== undefined) return true;
     const n = branch.offsets.length;
     log.add('branch-not-fitted',
@@ -147,6 +141,11 @@ function fittableBranches(branches: Branch[], options: BranchChoices, file: stri
   return kept;
 }
 
+/**
+ * Branches near their source whose deepest segment is a layer seen by no other such branch
+ * although others on the same side reach farther: a deeper layer shows on every branch long enough
+ * to see it, so a lone one is taken for noise. Branches whose segments the user fixed are left alone.
+ */
 function loneDeepestBranches(fits: BranchFit[], spacing: number): { fit: BranchFit; seenBeyond: string }[] {
   const near = fits.filter((f) => startsAtSource(f.branch, spacing));
   if (near.length < 2) return [];

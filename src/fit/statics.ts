@@ -6,7 +6,7 @@ import type { WarningLog } from '../core/warnings.js';
 import { delayTime } from '../depth/delayTime.js';
 import type { HeadCurve } from '../depth/headWaves.js';
 import { startsAtSource } from './branches.js';
-import { branchFit, branchName, segmentLimit, type BranchChoices } from './fitBranches.js';
+import { branchFit, branchName, isUserFixed, segmentLimit, type BranchChoices } from './fitBranches.js';
 import { segmentedRegression } from './segmentedRegression.js';
 
 /**
@@ -28,7 +28,6 @@ import { segmentedRegression } from './segmentedRegression.js';
  * @returns the fits, or undefined where too few refracted arrivals exist to solve for delays
  */
 export function staticsCorrectedFits(branches: Branch[], choices: BranchChoices, file: string, spacing: number, warnings: WarningLog): BranchFit[] | undefined {
-  const userFixed = (b: Branch) => choices.segments?.[branchName(b)] !== undefined || choices.breakpoints?.[branchName(b)] !== undefined || choices.segments?.['*'] !== undefined;
   const curves: HeadCurve[] = [];
   const first = new Map(branches.map((b) => [b, segmentedRegression(b.offsets, b.times, { firstThroughOrigin: choices.directThroughOrigin, maxSegments: choices.maxSegments, forbidSlopeIncrease: true })]));
   // Branches that start at their source see the direct wave first; its slowness tells whether an
@@ -69,7 +68,7 @@ export function staticsCorrectedFits(branches: Branch[], choices: BranchChoices,
     };
     try {
       const flags = refracted.get(branch);
-      if (userFixed(branch) || flags === undefined || !flags.some(Boolean)) {
+      if (isUserFixed(choices, branch) || flags === undefined || !flags.some(Boolean)) {
         const plain = segmentedRegression(branch.offsets, branch.times, options);
         if (plain === undefined) { unfitted = true; return undefined; }
         return branchFit(branch, plain, file, warnings);
