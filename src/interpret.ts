@@ -220,6 +220,10 @@ export function interpret(table: FirstBreakTable, options: InterpretOptions = {}
   };
 }
 
+/** The early stop of the section without the deepest refractor: a step lowering its objective by under SETTLE_STOP while its misfit is over SETTLE_GAP times the chosen section's score (see LayeredInversionOptions.settle). */
+export const SETTLE_GAP = 4;
+export const SETTLE_STOP = 0.03;
+
 /** The criterion of the deepest-refractor check, as the history and the warning name it. */
 export const COUNT_CHECK = 'rss/σ² + 2 p ln ln n over the inverted sections, p their effective unknowns (Hannan & Quinn 1979)';
 
@@ -233,34 +237,39 @@ export const COUNT_CHECK = 'rss/σ² + 2 p ln ln n over the inverted sections, p
  * not: the least-time paths of a refractor with a channel or a step carry its delay past the
  * geophones above it, which per-geophone time terms read as a deeper layer (sweep seed 119,
  * test/reference/sweep). The refractor is needed unless the section without it scores as well or
- * better. Undefined when the section without it cannot be had (no depths, inversion not run).
+ * better. The section without it is stopped early once it stays SETTLE_GAP times worse (see
+ * LayeredInversionOptions.settle; `settled` says so). Undefined when the section without it
+ * cannot be had (no depths, inversion not run).
  */
 function deepestNeeded(
   alternative: BranchFit[], count: number, chosen: InversionSummary,
   context: { receivers: { x: number; elev: number }[]; spacing: number; wave: Wave; pickNoise: number; sigma: number },
   options: InterpretOptions['inversion'],
-): { needed: boolean; with: { rms: number; value: number }; without: { rms: number; value: number } } | undefined {
+): { needed: boolean; with: { rms: number; value: number }; without: { rms: number; value: number }; settled: boolean } | undefined {
   const scratch = new WarningLog();
   const layers = usableLayers(layerVelocities(alternative, count, scratch));
   if (layers.length < count) return undefined;
   const intercept = interceptTimeDepths(alternative, layers, scratch);
   const refractors = refractorProfiles({ fits: alternative, layers, interceptPoints: intercept, receivers: context.receivers, spacing: context.spacing, pickNoise: context.pickNoise }, scratch);
-  const fewer = refineByInversion({ fits: alternative, layers, refractors, receivers: context.receivers, spacing: context.spacing, wave: context.wave, pickNoise: context.sigma }, options, scratch);
-  const score = (s: InversionSummary | undefined) => {
+  // Stopped early where it stays far worse than the chosen section (SETTLE_GAP times its score).
+  const chosenScore = score(chosen);
+  const settle = chosenScore === undefined ? undefined : { misfitAbove: SETTLE_GAP * chosenScore.value * context.sigma * context.sigma, relativeStop: SETTLE_STOP };
+  const fewer = options === false ? undefined : refineByInversion({ fits: alternative, layers, refractors, receivers: context.receivers, spacing: context.spacing, wave: context.wave, pickNoise: context.sigma }, { ...options, ...(settle ? { settle } : {}) }, scratch);
+  function score(s: InversionSummary | undefined) {
     if (s === undefined || s.rmsAfter === undefined || s.rmsBefore === undefined || s.effectiveUnknowns === undefined) return undefined;
     const rms = s.kept ? s.rmsAfter : Math.min(s.rmsBefore, s.rmsAfter);
     const n = s.picks;
     return { rms, value: (n * rms * rms) / (context.sigma * context.sigma) + 2 * Math.log(Math.log(n)) * s.effectiveUnknowns, n };
-  };
-  const withIt = score(chosen);
+  }
+  const withIt = chosenScore;
   const without = score(fewer);
   if (withIt === undefined || without === undefined || withIt.n !== without.n) return undefined;
-  return { needed: without.value > withIt.value, with: withIt, without };
+  return { needed: without.value > withIt.value, with: withIt, without, settled: fewer?.stopReason === 'settled far from the section compared' };
 }
 
 /** The history step of the deepest-refractor check. */
 function checkStep(refractor: number, check: NonNullable<ReturnType<typeof deepestNeeded>>): Interpretation['history'][number] {
-  return { step: 'refractor_check', parameters: { refractor, needed: check.needed, rms_with_ms: Number((check.with.rms * 1e3).toFixed(3)), rms_without_ms: Number((check.without.rms * 1e3).toFixed(3)), criterion: COUNT_CHECK } };
+  return { step: 'refractor_check', parameters: { refractor, needed: check.needed, rms_with_ms: Number((check.with.rms * 1e3).toFixed(3)), rms_without_ms: Number((check.without.rms * 1e3).toFixed(3)), ...(check.settled ? { without_stopped_early: true } : {}), criterion: COUNT_CHECK } };
 }
 
 /** Confidence of each pick where the table has a `confidence` column (0-1), as `pick` writes it. */

@@ -124,8 +124,18 @@ describe('interpret checks its deepest refractor through the layered inversion',
     const { result } = interpretCsv(realisticCsv(line, 9));
     expect(result.layers).toHaveLength(3);
     line.section.velocities.forEach((v, i) => expect(Math.abs(result.layers[i].velocity / v - 1), `layer ${i + 1}`).toBeLessThan(0.03));
-    expect(result.history.find((h) => h.step === 'refractor_check')?.parameters.needed).toBe(true);
+    const check = result.history.find((h) => h.step === 'refractor_check')?.parameters;
+    expect(check?.needed).toBe(true);
     expect(result.warnings.some((w) => w.code === 'refractor-not-needed')).toBe(false);
+    // Without the rock the section stays far worse than four times the chosen one's score, so its
+    // inversion is stopped early (LayeredInversionOptions.settle): said in the history.
+    expect(check?.without_stopped_early).toBe(true);
+    expect(Number(check?.rms_without_ms)).toBeGreaterThan(2 * Number(check?.rms_with_ms));
+  });
+
+  it('interpret(line 119) runs the section without the channel\'s layer to its end: it scores near the chosen one, so no early stop', () => {
+    const { result } = interpretCsv(realisticCsv(realisticLine(119), 119));
+    expect(result.history.find((h) => h.step === 'refractor_check')?.parameters.without_stopped_early).toBeUndefined();
   });
 });
 

@@ -154,6 +154,28 @@ describe('layeredInversion', () => {
     expect(insideOne / count).toBeLessThanOrEqual(0.9);
   });
 
+  it('layeredInversion with settle stops once a step gains under 3 % while the misfit is above the bound, and runs as without it when the bound is not reached', () => {
+    // Three layers (400 / 1300 / 3200 m/s, flat at 4 and 14 m; independent reference model, 0.25 ms
+    // noise) fitted with one refractor only: the section cannot explain the picks, its misfit stays
+    // far above the noise while the steps gain less and less. The rule of settle is worked here
+    // from the iteration history of the unsettled run.
+    const section: LayeredSection = { surface: () => 50, interfaces: [() => 46, () => 36], velocities: [400, 1300, 3200] };
+    const picks = referencePicks(section, 0.25e-3, 11);
+    const begin = start(section.surface, [() => 6], [420, 2600]);
+    const free = layeredInversion(picks, begin);
+    expect(free.rmsAfter).toBeGreaterThan(4 * 0.25e-3);
+    const settled = layeredInversion(picks, begin, { settle: { misfitAbove: 0, relativeStop: 0.03 } });
+    expect(settled.stopReason).toBe('settled far from the section compared');
+    expect(settled.iterations).toBeLessThan(free.iterations);
+    // A step that gains under 3 % on a fit that is not yet at its end: the RMS is still above the free run's.
+    expect(settled.rmsAfter).toBeGreaterThanOrEqual(free.rmsAfter);
+    expect(settled.rmsAfter).toBeLessThan(1.2 * free.rmsAfter);
+    // A bound above the misfit: the same run as without settle.
+    const unreached = layeredInversion(picks, begin, { settle: { misfitAbove: Infinity, relativeStop: 0.03 } });
+    expect(unreached.iterations).toBe(free.iterations);
+    expect(unreached.rmsAfter).toBe(free.rmsAfter);
+  });
+
   it('layeredInversion throws RangeError for a section without refractors, a velocity count that does not match, or a negative smoothing', () => {
     const ground = () => 0;
     const picks = [{ sourceX: 0, sourceZ: 0, receiverX: 2, receiverZ: 0, time: 0.004 }, { sourceX: 0, sourceZ: 0, receiverX: 4, receiverZ: 0, time: 0.008 }];
