@@ -252,19 +252,20 @@ function deepestNeeded(
   const intercept = interceptTimeDepths(alternative, layers, scratch);
   const refractors = refractorProfiles({ fits: alternative, layers, interceptPoints: intercept, receivers: context.receivers, spacing: context.spacing, pickNoise: context.pickNoise }, scratch);
   // Stopped early where it stays far worse than the chosen section (SETTLE_GAP times its score).
-  const chosenScore = score(chosen);
-  const settle = chosenScore === undefined ? undefined : { misfitAbove: SETTLE_GAP * chosenScore.value * context.sigma * context.sigma, relativeStop: SETTLE_STOP };
-  const fewer = options === false ? undefined : refineByInversion({ fits: alternative, layers, refractors, receivers: context.receivers, spacing: context.spacing, wave: context.wave, pickNoise: context.sigma }, { ...options, ...(settle ? { settle } : {}) }, scratch);
-  function score(s: InversionSummary | undefined) {
-    if (s === undefined || s.rmsAfter === undefined || s.rmsBefore === undefined || s.effectiveUnknowns === undefined) return undefined;
-    const rms = s.kept ? s.rmsAfter : Math.min(s.rmsBefore, s.rmsAfter);
-    const n = s.picks;
-    return { rms, value: (n * rms * rms) / (context.sigma * context.sigma) + 2 * Math.log(Math.log(n)) * s.effectiveUnknowns, n };
-  }
-  const withIt = chosenScore;
-  const without = score(fewer);
+  const withIt = sectionScore(chosen, context.sigma);
+  const settle = withIt === undefined ? undefined : { misfitAbove: SETTLE_GAP * withIt.value * context.sigma * context.sigma, relativeStop: SETTLE_STOP };
+  const fewer = refineByInversion({ fits: alternative, layers, refractors, receivers: context.receivers, spacing: context.spacing, wave: context.wave, pickNoise: context.sigma }, { ...(options || {}), ...(settle ? { settle } : {}) }, scratch);
+  const without = sectionScore(fewer, context.sigma);
   if (withIt === undefined || without === undefined || withIt.n !== without.n) return undefined;
   return { needed: without.value > withIt.value, with: withIt, without, settled: fewer?.stopReason === 'settled far from the section compared' };
+}
+
+/** The score of one inverted section in deepestNeeded (its better RMS where it was not kept). */
+function sectionScore(s: InversionSummary | undefined, sigma: number): { rms: number; value: number; n: number } | undefined {
+  if (s === undefined || s.rmsAfter === undefined || s.rmsBefore === undefined || s.effectiveUnknowns === undefined) return undefined;
+  const rms = s.kept ? s.rmsAfter : Math.min(s.rmsBefore, s.rmsAfter);
+  const n = s.picks;
+  return { rms, value: (n * rms * rms) / (sigma * sigma) + 2 * Math.log(Math.log(n)) * s.effectiveUnknowns, n };
 }
 
 /** The history step of the deepest-refractor check. */
