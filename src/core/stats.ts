@@ -6,6 +6,13 @@ export function median(values: number[]): number | undefined {
   return sorted.length % 2 ? sorted[half] : (sorted[half - 1] + sorted[half]) / 2;
 }
 
+/** Theil-Sen slope (Sen 1968): the median of the pairwise slopes (pairs at one x left out); undefined with none. */
+export function theilSenSlope(x: number[], y: number[]): number | undefined {
+  const slopes: number[] = [];
+  for (let a = 0; a < x.length; a++) for (let b = a + 1; b < x.length; b++) if (x[b] !== x[a]) slopes.push((y[b] - y[a]) / (x[b] - x[a]));
+  return median(slopes);
+}
+
 /**
  * Inverse-variance weighted mean of estimates with standard errors, with a standard error that
  * is never smaller than the scatter of the estimates allows (so disagreeing branches are not

@@ -1,4 +1,4 @@
-import { median } from '../core/stats.js';
+import { median, theilSenSlope } from '../core/stats.js';
 import { segmentedRegression } from '../fit/segmentedRegression.js';
 import { aicOnset } from './aic.js';
 import { staLtaTriggerOn } from './staLta.js';
@@ -180,14 +180,8 @@ export function localSpikes(x: number[], y: number[], dt: number): number[] {
     const near: number[] = [];
     for (let j = k + step; j >= 0 && j < x.length && near.length < 3; j += step) if (!excluded.has(j)) near.push(j);
     if (near.length < 2) return Infinity;
-    const slopes: number[] = [];
-    for (let a = 0; a < near.length; a++) {
-      for (let b = a + 1; b < near.length; b++) {
-        if (x[near[a]] !== x[near[b]]) slopes.push((y[near[b]] - y[near[a]]) / (x[near[b]] - x[near[a]]));
-      }
-    }
-    if (slopes.length === 0) return Infinity;
-    const slope = median(slopes)!;
+    const slope = theilSenSlope(near.map((j) => x[j]), near.map((j) => y[j]));
+    if (slope === undefined) return Infinity;
     const intercept = median(near.map((j) => y[j] - slope * x[j]))!;
     return Math.abs(y[k] - (intercept + slope * x[k]));
   };

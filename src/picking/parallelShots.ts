@@ -1,4 +1,4 @@
-import { median } from '../core/stats.js';
+import { median, theilSenSlope } from '../core/stats.js';
 import { nearSourceArrivals, type TracePick } from './autoPick.js';
 import { SHEAR_LATE } from './pickShearRecord.js';
 
@@ -33,13 +33,6 @@ export const PARALLEL_LEAST = 0.85;
  * least 1.5 times as fast (the layer below is stiffer by that or more where a refractor is seen).
  */
 export const PARALLEL_MOST = 1.3;
-
-/** Theil-Sen slope (Sen 1968): the median of the pairwise slopes. */
-function theilSen(x: number[], y: number[]): number | undefined {
-  const slopes: number[] = [];
-  for (let a = 0; a < x.length; a++) for (let b = a + 1; b < x.length; b++) if (x[b] !== x[a]) slopes.push((y[b] - y[a]) / (x[b] - x[a]));
-  return median(slopes);
-}
 
 const timed = (p: TracePick | undefined) => (p !== undefined && (p.status === 'picked' || p.status === 'repicked') ? p.time : undefined);
 
@@ -83,7 +76,7 @@ export function shearGuides(shots: ShotPicks[]): (number | undefined)[][] {
       // picks do not bend them; the ratio of two is the slope of one branch against the other.
       const slope = (times: (k: { i: number; j: number }) => number | undefined) => {
         const withTimes = far.filter((k) => times(k) !== undefined);
-        return withTimes.length >= 6 ? theilSen(withTimes.map(({ x }) => Math.abs(x - b.sourceX)), withTimes.map((k) => times(k)!)) : undefined;
+        return withTimes.length >= 6 ? theilSenSlope(withTimes.map(({ x }) => Math.abs(x - b.sourceX)), withTimes.map((k) => times(k)!)) : undefined;
       };
       const nearer = slope(({ j }) => timed(b.picks[j]));
       const breaks = slope(({ i }) => timed(a.firstBreaks[i]));
