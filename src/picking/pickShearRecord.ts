@@ -80,7 +80,9 @@ export interface ShearPickResult {
  * breaks (`checkRecord`: the S moveout by segmented regression, re-picks near it by AIC never
  * earlier than SHEAR_AFTER_P × the P time). A pick within max(3 samples, 1 ms) of the P moveout
  * is on the P arrival, not the S: it is tried again near the S moveout, and left unpicked with
- * that status if it is still there.
+ * that status if it is still there. Last, the traces next to the source, where the S lags the P by
+ * only a few samples, are checked against the direct S expected from the picks beyond them
+ * (`nearSourceShear`).
  *
  * @param pFirstBreaks - P picks per trace to use instead of picking the record's first breaks
  * @param sGuide - per trace, the S time expected where the first break is the S and no P is seen
@@ -111,7 +113,7 @@ export function pickShearRecord(traces: PickTrace[], options: PickOptions = {}, 
   picks.forEach((pick, i) => {
     if (onP(pick, i)) picks[i] = { confidence: 0, status: 'on the P arrival', snr: pick.snr };
   });
-  return { picks, pTimes: curve, firstBreaks: raw };
+  return { picks: nearSourceShear(traces, picks, curve, options), pTimes: curve, firstBreaks: raw };
 }
 
 /**
@@ -325,4 +327,70 @@ export function shearMoveoutBound(traces: PickTrace[], initial: TracePick[], fir
     }
   }
   return picks;
+}
+
+/**
+ * Least S-minus-P lag, as a share of the S time, for an S pick to be one the near-source check
+ * leans on: an S pick 1.4 times its P time or later (Vp/Vs ≥ √2, SHEAR_AFTER_P) lags the P by 30 %
+ * of its own time or more, well clear of the P wavelet.
+ */
+export const NEAR_SOURCE_LAG = 0.3;
+
+/**
+ * Number of S picks beyond the near-source traces whose time over offset gives the direct S
+ * slowness there (their median).
+ */
+export const NEAR_SOURCE_REFERENCES = 5;
+
+/**
+ * Near the source the S comes only a few samples after the P (the lag grows with offset: a fact
+ * of the trade), so the S search can stop in the P coda, between the two. The direct S slowness
+ * near the source is the median time over offset of the NEAR_SOURCE_REFERENCES S picks nearest the
+ * source on the side (on both sides together where one side has too few) whose lag behind the
+ * expected P is NEAR_SOURCE_LAG of their time and max(2 ms, 8 samples) or more. Every trace nearer
+ * the source than the first of them expects its S at that slowness times its offset: the direct
+ * wave leaves the source at the top layer's Vs, and a delay at the source or a bend to a head wave
+ * farther out only lowers that time over offset at the references, so the expected time is never
+ * too late. A pick earlier than the larger of the midpoint between the P time and that expected S
+ * and (1 − SHEAR_BEND) of the expected S is not the S (a P comes at most 1/√2 of the S time). It
+ * is tried again by AIC around the expected S and kept, as a re-pick, only within max(4 samples,
+ * SHEAR_BEND of the time) of it; otherwise the trace is left unpicked ('on the P arrival').
+ */
+export function nearSourceShear(traces: PickTrace[], picks: TracePick[], curve: (number | undefined)[], options: PickOptions = {}): TracePick[] {
+  const out = [...picks];
+  const timed = (i: number) => (picks[i].status === 'picked' || picks[i].status === 'repicked' ? picks[i].time : undefined);
+  const sides = [-1, 1].map((side) => {
+    const members = traces.map((t, i) => ({ x: Math.abs(t.offset), i })).filter(({ x, i }) => x > 0 && Math.sign(traces[i].offset) === side).sort((a, b) => a.x - b.x);
+    const references = members.filter(({ i }) => {
+      const time = timed(i);
+      const p = curve[i];
+      return time !== undefined && (p === undefined || time - p >= Math.max(NEAR_SOURCE_LAG * time, 2e-3, 8 * traces[i].sampleInterval));
+    });
+    return { members, references };
+  });
+  const slownessOf = (references: { x: number; i: number }[]) => references.slice(0, NEAR_SOURCE_REFERENCES).map(({ x, i }) => timed(i)! / x).sort((a, b) => a - b)[Math.min(references.length, NEAR_SOURCE_REFERENCES) >> 1];
+  const both = [...sides[0].references, ...sides[1].references].sort((a, b) => a.x - b.x);
+  for (const { members, references } of sides) {
+    const own = references.length >= NEAR_SOURCE_REFERENCES;
+    if (!own && both.length < NEAR_SOURCE_REFERENCES) continue;
+    const slowness = slownessOf(own ? references : both);
+    // Traces nearer than the median reference are judged (a first reference with a pick in the
+    // P coda would otherwise shield the traces nearer the source).
+    const reach = (own ? references : both)[NEAR_SOURCE_REFERENCES >> 1].x;
+    for (const { x, i } of members) {
+      if (x >= reach) break;
+      const time = timed(i);
+      if (time === undefined) continue;
+      const expected = slowness * x;
+      const p = curve[i] ?? 0;
+      const lower = Math.max((p + expected) / 2, (1 - SHEAR_BEND) * expected);
+      if (time >= lower) continue;
+      const tolerance = Math.max(4 * traces[i].sampleInterval, SHEAR_BEND * expected);
+      const again = pickNear(traces[i], expected, tolerance, options, lower);
+      out[i] = again !== undefined && Math.abs(again.time! - expected) <= tolerance && again.time! >= lower
+        ? { ...again, status: 'repicked', confidence: again.confidence / 2 }
+        : { confidence: 0, status: 'on the P arrival', snr: picks[i].snr };
+    }
+  }
+  return out;
 }
